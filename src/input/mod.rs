@@ -1,0 +1,175 @@
+//! Reading a package: TOML text to a validated [`Package`], or diagnostics naming the
+//! file, line, column, key, the value found and what is allowed.
+
+pub mod locate;
+pub mod model;
+pub mod schema;
+pub mod validate;
+
+use crate::error::{Diagnostic, Error, Result};
+use crate::units::System;
+pub use model::Package;
+use std::path::Path;
+
+/// The largest input file read (bytes).
+pub const MAX_FILE_BYTES: u64 = 16 * 1024 * 1024;
+
+/// The input as read: its name for messages and its text.
+#[derive(Debug, Clone)]
+pub struct Source {
+    pub name: String,
+    pub text: String,
+}
+
+/// Reads a file, refusing what is too large or not UTF-8 text.
+pub fn read(path: &Path) -> Result<Source> {
+    let name = path.display().to_string();
+    let meta = std::fs::metadata(path).map_err(|e| Error::io(path, e))?;
+    if !meta.is_file() {
+        return Err(Error::Io { path: name, message: "not a file".into() });
+    }
+    if meta.len() > MAX_FILE_BYTES {
+        return Err(Error::Input(vec![Diagnostic {
+            file: name,
+            line: 0,
+            col: 0,
+            key: String::new(),
+            message: format!("the file is {} bytes long", meta.len()),
+            allowed: Some(format!("input files up to {} MiB", MAX_FILE_BYTES / (1024 * 1024))),
+            snippet: None,
+        }]));
+    }
+    let bytes = std::fs::read(path).map_err(|e| Error::io(path, e))?;
+    from_bytes(name, bytes)
+}
+
+/// Checks that bytes are UTF-8 text (no NUL), giving the position of the first bad byte.
+pub fn from_bytes(name: String, bytes: Vec<u8>) -> Result<Source> {
+    let bad = |offset: usize, message: String| {
+        let (line, col) = {
+            let before = &bytes[..offset];
+            let line = before.iter().filter(|b| **b == b'\n').count() + 1;
+            let start = before.iter().rposition(|b| *b == b'\n').map_or(0, |i| i + 1);
+            (line, offset - start + 1)
+        };
+        Error::Input(vec![Diagnostic {
+            file: name.clone(),
+            line,
+            col,
+            key: String::new(),
+            message,
+            allowed: Some("a TOML text file in UTF-8".into()),
+            snippet: None,
+        }])
+    };
+    if let Some(i) = bytes.iter().position(|b| *b == 0) {
+        return Err(bad(i, "the file holds a NUL byte: it is not a text file".into()));
+    }
+    match String::from_utf8(bytes.clone()) {
+        Ok(text) => Ok(Source { name, text }),
+        Err(e) => {
+            let i = e.utf8_error().valid_up_to();
+            Err(bad(i, "the file is not valid UTF-8 text".into()))
+        }
+    }
+}
+
+fn diagnostic(
+    src: &Source,
+    span: Option<std::ops::Range<usize>>,
+    key: String,
+    message: String,
+    allowed: Option<String>,
+) -> Diagnostic {
+    let (line, col, snippet) = match &span {
+        Some(s) => {
+            let (l, c) = locate::line_col(&src.text, s.start);
+            (l, c, locate::snippet(&src.text, s))
+        }
+        None => (0, 0, None),
+    };
+    Diagnostic { file: src.name.clone(), line, col, key, message, allowed, snippet }
+}
+
+/// The unit system, read first: every other value depends on it.
+fn system_of(src: &Source, f: &schema::File) -> Result<System> {
+    let units = f.package.as_ref().and_then(|p| p.units.as_deref());
+    let path = [locate::Seg::Key("package"), locate::Seg::Key("units")];
+    match units {
+        Some("us") => Ok(System::Us),
+        Some("si") => Ok(System::Si),
+        other => {
+            let message = match other {
+                Some(u) => format!("units = {u:?} is not a unit system"),
+                None => "units is missing".to_string(),
+            };
+            Err(Error::Input(vec![diagnostic(
+                src,
+                locate::span_of(&src.text, &path),
+                locate::show_path(&path),
+                message,
+                Some("\"us\" (in, in2, ksi, kip, kip-ft) or \"si\" (mm, mm2, MPa, kN, kN-m)".into()),
+            )]))
+        }
+    }
+}
+
+/// Parses and validates a package.
+pub fn parse(src: &Source) -> Result<Package> {
+    let file: schema::File = toml::from_str(&src.text).map_err(|e| {
+        let mut message = e.message().trim().to_string();
+        if let Some(first) = message.lines().next() {
+            message = first.to_string();
+        }
+        // name the key for unknown-field errors and missing tables
+        let key = e.span().map(|s| key_at(&src.text, s.start)).unwrap_or_default();
+        Error::Input(vec![diagnostic(src, e.span(), key, message, None)])
+    })?;
+    let sys = system_of(src, &file)?;
+    let mut cx = validate::Ctx::new(sys);
+    let pkg = validate::package(&mut cx, &file);
+    if !cx.problems.is_empty() || pkg.is_none() {
+        let mut ds: Vec<Diagnostic> = cx
+            .problems
+            .iter()
+            .take(20)
+            .map(|p| {
+                let span = locate::span_of(&src.text, &p.path);
+                diagnostic(src, span, locate::show_path(&p.path), p.message.clone(), p.allowed.clone())
+            })
+            .collect();
+        if ds.is_empty() {
+            ds.push(diagnostic(src, None, String::new(), "the package could not be read".into(), None));
+        }
+        return Err(Error::Input(ds));
+    }
+    let mut pkg = pkg.ok_or_else(|| Error::Usage("the package could not be read".into()))?;
+    pkg.warnings = cx
+        .warnings
+        .iter()
+        .map(|(path, message)| {
+            let at = match locate::span_of(&src.text, path) {
+                Some(s) => {
+                    let (l, c) = locate::line_col(&src.text, s.start);
+                    format!("{}:{l}:{c}", src.name)
+                }
+                None => src.name.clone(),
+            };
+            model::Warning { at, key: locate::show_path(path), message: message.clone() }
+        })
+        .collect();
+    Ok(pkg)
+}
+
+/// The bare key written at a byte offset (for messages about unknown keys).
+fn key_at(text: &str, offset: usize) -> String {
+    let rest = text.get(offset..).unwrap_or("");
+    rest.chars().take_while(|c| c.is_alphanumeric() || *c == '_' || *c == '-').collect()
+}
+
+/// Reads and validates a package file.
+pub fn load(path: &Path) -> Result<(Source, Package)> {
+    let src = read(path)?;
+    let pkg = parse(&src)?;
+    Ok((src, pkg))
+}

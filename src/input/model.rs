@@ -1,0 +1,302 @@
+//! The validated package: what the engine computes from. All values are in the coherent
+//! units of the package's system (see [`crate::units`]).
+
+use crate::material::concrete::Curve as ConcreteCurve;
+use crate::material::strand::{Grade, Model};
+use crate::section::Region;
+use crate::section::shapes::Shape;
+use crate::units::System;
+use serde::{Serialize, Serializer};
+
+/// A calendar date (from the input; the program never reads the clock for a package).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub struct Date {
+    pub year: u16,
+    pub month: u8,
+    pub day: u8,
+}
+
+impl std::fmt::Display for Date {
+    fn fmt(&self, f: &mut std::fmt::Formatter) -> std::fmt::Result {
+        write!(f, "{:04}-{:02}-{:02}", self.year, self.month, self.day)
+    }
+}
+
+impl Serialize for Date {
+    fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.collect_str(self)
+    }
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum Paper {
+    Letter,
+    A4,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum Role {
+    Prepared,
+    Checked,
+    Approved,
+}
+
+impl Role {
+    pub fn name(self) -> &'static str {
+        match self {
+            Role::Prepared => "prepared",
+            Role::Checked => "checked",
+            Role::Approved => "approved",
+        }
+    }
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Signoff {
+    pub role: Role,
+    pub name: String,
+    pub license: Option<String>,
+    pub firm: Option<String>,
+    pub date: Option<Date>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Revision {
+    pub rev: String,
+    pub date: Date,
+    pub description: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Meta {
+    pub title: String,
+    pub project: String,
+    pub project_number: String,
+    pub client: String,
+    pub subject: String,
+    pub revision: String,
+    pub date: Date,
+    pub basis: String,
+    pub paper: Paper,
+    pub notes: Option<String>,
+    pub revisions: Vec<Revision>,
+    pub signoffs: Vec<Signoff>,
+}
+
+impl Meta {
+    /// The sign-off of a role.
+    pub fn signoff(&self, role: Role) -> Option<&Signoff> {
+        self.signoffs.iter().find(|s| s.role == role)
+    }
+    /// A package is issued (not a draft) when every sign-off it lists is dated.
+    pub fn is_draft(&self) -> bool {
+        self.signoffs.is_empty() || self.signoffs.iter().any(|s| s.date.is_none())
+    }
+}
+
+/// A value the input did not set, taken by default; shown in the design basis.
+#[derive(Debug, Clone, Serialize, PartialEq)]
+pub struct Default {
+    /// The key, e.g. "strands.fpu".
+    pub key: String,
+    /// What was assumed, e.g. "fpu = 270 ksi".
+    pub text: String,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[serde(tag = "source", rename_all = "snake_case")]
+pub enum EcSource {
+    Given,
+    Normalweight,
+    Density { wc: f64 },
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Concrete {
+    pub fc: f64,
+    pub ec: f64,
+    pub ec_source: EcSource,
+    pub lambda: f64,
+    pub fr: f64,
+    pub fr_given: bool,
+    pub curve: ConcreteCurve,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum BlockMode {
+    /// The topping's f'c and beta1 over the whole block (conservative practice).
+    Topping,
+    /// a = beta1 c with the topping's beta1; each concrete's 0.85 f'c over its own area.
+    TwoPart,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Topping {
+    pub thickness: f64,
+    pub width: f64,
+    /// Centre of the topping in x.
+    pub x_center: f64,
+    pub concrete: Concrete,
+    pub block: BlockMode,
+}
+
+/// A strand layer's level.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[serde(tag = "profile", rename_all = "snake_case")]
+pub enum Profile {
+    /// Straight, at a depth below the top of the precast unit.
+    Straight { depth: f64 },
+    /// Harped: depth at the member end, at the harp point, and the harp point's distance
+    /// from the end. Between them the depth varies linearly; beyond, it is `depth_harp`.
+    Harped { depth_end: f64, depth_harp: f64, harp_x: f64 },
+}
+
+impl Profile {
+    /// Depth below the top of the precast unit at a distance x from the end (`None`: at
+    /// the governing section, taken at the harp depth).
+    pub fn depth_at(&self, x: Option<f64>) -> f64 {
+        match *self {
+            Profile::Straight { depth } => depth,
+            Profile::Harped { depth_end, depth_harp, harp_x } => match x {
+                Some(x) if x < harp_x => depth_end + (depth_harp - depth_end) * x / harp_x,
+                _ => depth_harp,
+            },
+        }
+    }
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[serde(tag = "source", rename_all = "snake_case")]
+pub enum FseSource {
+    Given,
+    /// fse = jacking fpu - losses.
+    Losses {
+        jacking: f64,
+        fpj: f64,
+        losses: f64,
+    },
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct StrandLayer {
+    pub profile: Profile,
+    pub count: u32,
+    pub diameter: f64,
+    /// Area of one strand.
+    pub area: f64,
+    /// Name of the standard size, when it is one.
+    pub size: Option<&'static str>,
+    pub fpu: f64,
+    pub fpy: f64,
+    pub grade: Grade,
+    pub model: Model,
+    pub fse: f64,
+    pub fse_source: FseSource,
+    pub debonded_length: f64,
+}
+
+impl StrandLayer {
+    pub fn total_area(&self) -> f64 {
+        self.area * self.count as f64
+    }
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct BarLayer {
+    pub depth: f64,
+    pub count: u32,
+    pub size: Option<&'static str>,
+    pub diameter: f64,
+    pub area: f64,
+    pub fy: f64,
+    pub es: f64,
+}
+
+impl BarLayer {
+    pub fn total_area(&self) -> f64 {
+        self.area * self.count as f64
+    }
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Location {
+    pub name: String,
+    /// Distance from the member end; `None` when not given (strands then taken as fully
+    /// developed).
+    pub x: Option<f64>,
+    pub mu: f64,
+    /// Non-composite moment on the precast unit at this location (topped members).
+    pub mnc: f64,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Kind {
+    Beam,
+    OneWaySlab,
+}
+
+/// Options of the moment-curvature analysis.
+#[derive(Debug, Clone, Copy, Serialize)]
+pub struct CurveOptions {
+    pub crushing_strain: f64,
+    pub rupture_strain: f64,
+    pub points: usize,
+    pub strips: usize,
+    pub bar_hardening: f64,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Member {
+    pub id: String,
+    pub description: String,
+    pub kind: Kind,
+    pub length: Option<f64>,
+    pub mnc: f64,
+    pub locations: Vec<Location>,
+    pub concrete: Concrete,
+    pub shape: Shape,
+    #[serde(skip)]
+    pub region: Region,
+    pub topping: Option<Topping>,
+    pub strands: Vec<StrandLayer>,
+    pub bars: Vec<BarLayer>,
+    pub curve: CurveOptions,
+    pub defaults: Vec<Default>,
+}
+
+impl Member {
+    /// Height of the precast unit.
+    pub fn precast_height(&self) -> f64 {
+        self.region.y_top() - self.region.y_bot()
+    }
+    /// Thickness of the topping (0 without one).
+    pub fn topping_thickness(&self) -> f64 {
+        self.topping.as_ref().map_or(0.0, |t| t.thickness)
+    }
+    /// Overall height, topping included.
+    pub fn total_height(&self) -> f64 {
+        self.precast_height() + self.topping_thickness()
+    }
+}
+
+/// A warning about input that is allowed but unusual.
+#[derive(Debug, Clone, Serialize, PartialEq)]
+pub struct Warning {
+    /// Where: "file:line:col".
+    pub at: String,
+    pub key: String,
+    pub message: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Package {
+    pub format: i64,
+    pub units: System,
+    pub meta: Meta,
+    pub members: Vec<Member>,
+    pub warnings: Vec<Warning>,
+}

@@ -1,0 +1,212 @@
+//! The TOML schema as read by serde, before validation. Every table refuses unknown
+//! keys, so a misspelt key is an error, never silently ignored.
+
+use serde::Deserialize;
+use serde::de::{self, Deserializer, Visitor};
+use toml::value::Datetime;
+
+/// A number, or a string holding a number and a unit ("12.7 mm").
+#[derive(Debug, Clone, PartialEq)]
+pub enum Q {
+    Num(f64),
+    Text(String),
+}
+
+impl<'de> Deserialize<'de> for Q {
+    fn deserialize<D: Deserializer<'de>>(d: D) -> Result<Q, D::Error> {
+        struct V;
+        impl Visitor<'_> for V {
+            type Value = Q;
+            fn expecting(&self, f: &mut std::fmt::Formatter) -> std::fmt::Result {
+                f.write_str("a number, or a string with a number and a unit such as \"12.7 mm\"")
+            }
+            fn visit_f64<E: de::Error>(self, v: f64) -> Result<Q, E> {
+                Ok(Q::Num(v))
+            }
+            fn visit_i64<E: de::Error>(self, v: i64) -> Result<Q, E> {
+                Ok(Q::Num(v as f64))
+            }
+            fn visit_u64<E: de::Error>(self, v: u64) -> Result<Q, E> {
+                Ok(Q::Num(v as f64))
+            }
+            fn visit_str<E: de::Error>(self, v: &str) -> Result<Q, E> {
+                Ok(Q::Text(v.to_string()))
+            }
+        }
+        d.deserialize_any(V)
+    }
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct File {
+    pub format: Option<i64>,
+    pub package: Option<Package>,
+    #[serde(default)]
+    pub member: Vec<Member>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Package {
+    pub title: Option<String>,
+    pub project: Option<String>,
+    pub project_number: Option<String>,
+    pub client: Option<String>,
+    pub subject: Option<String>,
+    pub revision: Option<String>,
+    pub date: Option<Datetime>,
+    pub units: Option<String>,
+    pub basis: Option<String>,
+    pub paper: Option<String>,
+    pub notes: Option<String>,
+    #[serde(default)]
+    pub revisions: Vec<Revision>,
+    #[serde(default)]
+    pub signoff: Vec<Signoff>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Revision {
+    pub rev: Option<String>,
+    pub date: Option<Datetime>,
+    pub description: Option<String>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Signoff {
+    pub role: Option<String>,
+    pub name: Option<String>,
+    pub license: Option<String>,
+    pub firm: Option<String>,
+    pub date: Option<Datetime>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Member {
+    pub id: Option<String>,
+    pub description: Option<String>,
+    pub kind: Option<String>,
+    pub length: Option<Q>,
+    pub mu: Option<Q>,
+    pub mnc: Option<Q>,
+    #[serde(default)]
+    pub location: Vec<Location>,
+    pub concrete: Option<Concrete>,
+    pub section: Option<Section>,
+    pub topping: Option<Topping>,
+    #[serde(default)]
+    pub strands: Vec<Strands>,
+    #[serde(default)]
+    pub bars: Vec<Bars>,
+    pub curve: Option<CurveOptions>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Location {
+    pub name: Option<String>,
+    pub x: Option<Q>,
+    pub mu: Option<Q>,
+    pub mnc: Option<Q>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Concrete {
+    pub fc: Option<Q>,
+    pub ec: Option<Q>,
+    pub density: Option<Q>,
+    pub lambda: Option<f64>,
+    pub fr: Option<Q>,
+    pub curve: Option<String>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Section {
+    pub shape: Option<String>,
+    pub width: Option<Q>,
+    pub height: Option<Q>,
+    pub flange_width: Option<Q>,
+    pub flange_thickness: Option<Q>,
+    pub web_width: Option<Q>,
+    pub ledge_width: Option<Q>,
+    pub ledge_height: Option<Q>,
+    pub ledges: Option<i64>,
+    pub stem_spacing: Option<Q>,
+    pub stem_width_top: Option<Q>,
+    pub stem_width_bottom: Option<Q>,
+    pub top_flange_width: Option<Q>,
+    pub top_flange_thickness: Option<Q>,
+    pub top_taper: Option<Q>,
+    pub bottom_flange_width: Option<Q>,
+    pub bottom_flange_thickness: Option<Q>,
+    pub bottom_taper: Option<Q>,
+    pub void_count: Option<i64>,
+    pub void_diameter: Option<Q>,
+    pub void_center_height: Option<Q>,
+    pub outline: Option<Vec<Vec<f64>>>,
+    pub holes: Option<Vec<Vec<Vec<f64>>>>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Topping {
+    pub thickness: Option<Q>,
+    pub width: Option<Q>,
+    pub fc: Option<Q>,
+    pub ec: Option<Q>,
+    pub density: Option<Q>,
+    pub lambda: Option<f64>,
+    pub block: Option<String>,
+    pub curve: Option<String>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Strands {
+    pub depth: Option<Q>,
+    pub height: Option<Q>,
+    pub depth_end: Option<Q>,
+    pub depth_harp: Option<Q>,
+    pub height_end: Option<Q>,
+    pub height_harp: Option<Q>,
+    pub harp_x: Option<Q>,
+    pub count: Option<i64>,
+    pub diameter: Option<Q>,
+    pub area: Option<Q>,
+    pub fpu: Option<Q>,
+    pub fpy: Option<Q>,
+    pub fse: Option<Q>,
+    pub jacking: Option<f64>,
+    pub losses: Option<Q>,
+    pub model: Option<String>,
+    pub debonded_length: Option<Q>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Bars {
+    pub depth: Option<Q>,
+    pub height: Option<Q>,
+    pub count: Option<i64>,
+    pub size: Option<String>,
+    pub diameter: Option<Q>,
+    pub area: Option<Q>,
+    pub fy: Option<Q>,
+    pub es: Option<Q>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct CurveOptions {
+    pub crushing_strain: Option<f64>,
+    pub rupture_strain: Option<f64>,
+    pub points: Option<i64>,
+    pub strips: Option<i64>,
+    pub bar_hardening: Option<f64>,
+}

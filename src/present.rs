@@ -1,0 +1,286 @@
+//! Presentations of results for the terminal and for tools: the `check` table and JSON,
+//! and the `trace` listing as text, JSON or CSV.
+
+use crate::analysis::{Analysis, LayerOut, LocationResult, MemberResult};
+use crate::input::Package;
+use crate::trace::{Step, Style, show};
+use serde_json::{Value, json};
+
+fn layer_json(l: &LayerOut, strand: bool) -> Value {
+    let mut v = json!({
+        "depth": l.depth,
+        "area": l.area,
+        "eps": l.eps,
+        "stress": l.stress,
+        "force": l.force,
+    });
+    if strand {
+        v["eps1"] = json!(l.eps1);
+        v["eps2"] = json!(l.eps2);
+        v["eps3"] = json!(l.eps3);
+        v["fse"] = json!(l.fse);
+        v["active"] = json!(l.active);
+    } else {
+        v["eps3"] = json!(l.eps3);
+    }
+    v
+}
+
+fn location_json(l: &LocationResult) -> Value {
+    json!({
+        "name": l.name,
+        "x": l.x,
+        "c": l.c,
+        "a": l.a,
+        "beta1": l.beta1,
+        "zone": l.zone,
+        "eps_t": l.eps_t,
+        "phi": l.phi,
+        "mn": l.mn,
+        "phi_mn": l.phi_mn,
+        "mu": l.mu,
+        "ratio": l.ratio,
+        "control": l.control,
+        "mcr": l.mcr,
+        "min_reinforcement_ok": l.min_reinforcement.ok,
+        "min_reinforcement_waived": !l.min_reinforcement.ok && l.min_reinforcement.waiver_flexure,
+        "rupture_risk": l.rupture_risk,
+        "pass": l.pass,
+        "conclusion": l.conclusion,
+        "strands": l.strands.iter().map(|s| layer_json(s, true)).collect::<Vec<_>>(),
+        "bars": l.bars.iter().map(|s| layer_json(s, false)).collect::<Vec<_>>(),
+    })
+}
+
+fn member_json(m: &MemberResult) -> Value {
+    let mut v = location_json(m.governing());
+    let obj = v.as_object_mut().expect("location_json builds an object");
+    obj.remove("name");
+    obj.remove("x");
+    obj.insert("id".into(), json!(m.id));
+    obj.insert("governing".into(), json!(m.governing().name));
+    obj.insert("pass".into(), json!(m.pass));
+    obj.insert("locations".into(), Value::Array(m.locations.iter().map(location_json).collect()));
+    v
+}
+
+/// `check --json`: the contract of the design document.
+pub fn check_json(pkg: &Package, a: &Analysis) -> Value {
+    json!({
+        "format": 1,
+        "units": pkg.units.names(),
+        "pass": a.pass(),
+        "members": a.members.iter().map(member_json).collect::<Vec<_>>(),
+        "warnings": pkg.warnings,
+    })
+}
+
+/// `check`: one row per location.
+pub fn check_table(pkg: &Package, a: &Analysis) -> String {
+    let u = pkg.units.names();
+    let mut rows: Vec<Vec<String>> = vec![vec![
+        "member".into(),
+        "location".into(),
+        format!("x ({})", u.length),
+        format!("c ({})", u.length),
+        format!("a ({})", u.length),
+        "zone".into(),
+        format!("fps ({})", u.stress),
+        "eps_t".into(),
+        "control".into(),
+        "phi".into(),
+        format!("phi Mn ({})", u.moment),
+        format!("Mu ({})", u.moment),
+        "Mu/phi Mn".into(),
+        "1.2 Mcr".into(),
+        "result".into(),
+    ]];
+    for m in &a.members {
+        for l in &m.locations {
+            let fps = l
+                .strands
+                .iter()
+                .filter(|s| s.active)
+                .max_by(|x, y| x.depth.total_cmp(&y.depth))
+                .map(|s| show(s.stress))
+                .unwrap_or_else(|| "-".into());
+            let minr = if l.min_reinforcement.ok {
+                "ok"
+            } else if l.min_reinforcement.waiver_flexure {
+                "waived*"
+            } else {
+                "NOT MET"
+            };
+            rows.push(vec![
+                m.id.clone(),
+                l.name.clone(),
+                l.x.map(show).unwrap_or_else(|| "-".into()),
+                show(l.c),
+                show(l.a),
+                l.zone.into(),
+                fps,
+                format!("{:.5}", l.eps_t),
+                l.control.into(),
+                format!("{:.3}", l.phi),
+                show(l.phi_mn),
+                show(l.mu),
+                format!("{:.3}", l.ratio),
+                minr.into(),
+                if l.pass { "pass".into() } else { "FAIL".into() },
+            ]);
+        }
+    }
+    let widths: Vec<usize> =
+        (0..rows[0].len()).map(|c| rows.iter().map(|r| r[c].chars().count()).max().unwrap_or(0)).collect();
+    let mut out = format!("{} — {} ({} units)\n", pkg.meta.title, pkg.meta.project, pkg.units.label());
+    for (i, r) in rows.iter().enumerate() {
+        let line: Vec<String> = r
+            .iter()
+            .enumerate()
+            .map(|(c, cell)| {
+                if c < 2 || c == 5 || c == 8 || c == 14 {
+                    format!("{cell:<w$}", w = widths[c])
+                } else {
+                    format!("{cell:>w$}", w = widths[c])
+                }
+            })
+            .collect();
+        out.push_str(line.join("  ").trim_end());
+        out.push('\n');
+        if i == 0 {
+            out.push_str(&"-".repeat(widths.iter().sum::<usize>() + 2 * (widths.len() - 1)));
+            out.push('\n');
+        }
+    }
+    if a.members
+        .iter()
+        .flat_map(|m| &m.locations)
+        .any(|l| !l.min_reinforcement.ok && l.min_reinforcement.waiver_flexure)
+    {
+        out.push_str("* phi Mn < 1.2 Mcr but phi Mn >= 2 Mu: the waiver applies only if shear strength is also at least twice that required (not checked).\n");
+    }
+    for w in &pkg.warnings {
+        out.push_str(&format!("warning: {}: {}: {}\n", w.at, w.key, w.message));
+    }
+    let (n, failed) =
+        a.members.iter().flat_map(|m| &m.locations).fold((0, 0), |(n, f), l| (n + 1, f + usize::from(!l.pass)));
+    if failed == 0 {
+        out.push_str(&format!("All {n} check locations of {} members pass.\n", a.members.len()));
+    } else {
+        out.push_str(&format!("{failed} of {n} check locations FAIL.\n"));
+    }
+    out
+}
+
+/// Every step of the selected members, as readable text.
+pub fn trace_text(pkg: &Package, members: &[&MemberResult]) -> String {
+    let mut out = String::new();
+    for m in members {
+        out.push_str(&format!("== member {}\n", m.id));
+        let write = |out: &mut String, st: &Step| {
+            out.push_str(&format!("[{}] {}\n    {}", st.id, st.title, st.plain_line(pkg.units)));
+            if let Some(c) = &st.clause {
+                out.push_str(&format!("    ({c})"));
+            }
+            out.push('\n');
+            if let Some(n) = &st.note {
+                out.push_str(&format!("    note: {n}\n"));
+            }
+        };
+        for st in &m.trace {
+            write(&mut out, st);
+        }
+        for l in &m.locations {
+            out.push_str(&format!(
+                "-- location {} ({})\n",
+                l.name,
+                l.x.map(|x| format!("x = {}", show(x))).unwrap_or_else(|| "no x".into())
+            ));
+            out.push_str("   iteration log: k, method, c, a, eps (extreme), f (extreme), C, T, C - T\n");
+            for t in &l.iterations {
+                out.push_str(&format!(
+                    "   {:>3} {:<17} {:>12.6} {:>12.6} {:>10.6} {:>10.3} {:>12.4} {:>12.4} {:>12.3e}\n",
+                    t.k, t.method, t.c, t.a, t.eps, t.stress, t.cc, t.t, t.residual
+                ));
+            }
+            for st in &l.trace {
+                write(&mut out, st);
+            }
+            out.push_str(&format!("=> {}\n", l.conclusion));
+        }
+    }
+    out
+}
+
+/// The steps of the selected members as JSON (each step with its printed formula).
+pub fn trace_json(pkg: &Package, members: &[&MemberResult]) -> Value {
+    let step = |st: &Step, member: &str, location: Option<&str>| {
+        let printed = st.printed(Style::Plain);
+        json!({
+            "member": member,
+            "location": location,
+            "id": st.id,
+            "group": st.group,
+            "title": st.title,
+            "symbol": st.symbol.plain,
+            "formula": st.formula,
+            "formula_text": printed.as_ref().map(|p| &p.0),
+            "substituted": printed.as_ref().map(|p| &p.1),
+            "inputs": st.inputs.iter().map(|i| json!({"symbol": i.symbol.plain, "value": i.value, "unit": i.unit.name(pkg.units)})).collect::<Vec<_>>(),
+            "value": st.value,
+            "unit": st.unit.name(pkg.units),
+            "clause": st.clause,
+            "note": st.note,
+        })
+    };
+    let mut steps = Vec::new();
+    for m in members {
+        for st in &m.trace {
+            steps.push(step(st, &m.id, None));
+        }
+        for l in &m.locations {
+            for st in &l.trace {
+                steps.push(step(st, &m.id, Some(&l.name)));
+            }
+        }
+    }
+    json!({"format": 1, "units": pkg.units.names(), "steps": steps})
+}
+
+fn csv_field(s: &str) -> String {
+    if s.contains([',', '"', '\n']) { format!("\"{}\"", s.replace('"', "\"\"")) } else { s.to_string() }
+}
+
+/// The steps as CSV: member, location, id, title, symbol, formula, substituted, value,
+/// unit, clause.
+pub fn trace_csv(pkg: &Package, members: &[&MemberResult]) -> String {
+    let mut out = String::from("member,location,id,title,symbol,formula,substituted,value,unit,clause\n");
+    let mut row = |m: &str, l: &str, st: &Step| {
+        let (f, s) = st.printed(Style::Plain).unwrap_or_default();
+        let cells = [
+            m,
+            l,
+            &st.id,
+            &st.title,
+            &st.symbol.plain,
+            &f,
+            &s,
+            &format!("{}", st.value),
+            st.unit.name(pkg.units),
+            st.clause.as_deref().unwrap_or(""),
+        ];
+        out.push_str(&cells.iter().map(|c| csv_field(c)).collect::<Vec<_>>().join(","));
+        out.push('\n');
+    };
+    for m in members {
+        for st in &m.trace {
+            row(&m.id, "", st);
+        }
+        for l in &m.locations {
+            for st in &l.trace {
+                row(&m.id, &l.name, st);
+            }
+        }
+    }
+    out
+}

@@ -1,0 +1,464 @@
+//! Cross-section geometry: polygons with holes, exact properties, and exact clipping at
+//! a horizontal line (the compression zone above a depth is clipped, never sampled).
+//!
+//! Coordinates are `[x, y]` with y upward (drawing convention), in the package's length
+//! unit. Outlines are stored counter-clockwise and holes clockwise, so that every sum
+//! over rings is simply additive.
+
+pub mod shapes;
+
+use serde::Serialize;
+
+pub type P = [f64; 2];
+
+/// Running sums of Green's-theorem integrals over a closed chain of points.
+#[derive(Clone, Copy, Default, Debug)]
+struct Acc {
+    first: Option<P>,
+    prev: Option<P>,
+    /// 2 A
+    a2: f64,
+    /// 6 ∫ y dA
+    qx6: f64,
+    /// 6 ∫ x dA
+    qy6: f64,
+    /// 12 ∫ y² dA
+    ix12: f64,
+}
+
+impl Acc {
+    #[inline]
+    fn term(&mut self, p: P, q: P) {
+        let cross = p[0] * q[1] - q[0] * p[1];
+        self.a2 += cross;
+        self.qx6 += (p[1] + q[1]) * cross;
+        self.qy6 += (p[0] + q[0]) * cross;
+        self.ix12 += (p[1] * p[1] + p[1] * q[1] + q[1] * q[1]) * cross;
+    }
+    #[inline]
+    fn push(&mut self, p: P) {
+        match self.prev {
+            Some(prev) => self.term(prev, p),
+            None => self.first = Some(p),
+        }
+        self.prev = Some(p);
+    }
+    #[inline]
+    fn close(mut self) -> Moments {
+        if let (Some(first), Some(prev)) = (self.first, self.prev) {
+            self.term(prev, first);
+        }
+        Moments { area: self.a2 / 2.0, qx: self.qx6 / 6.0, qy: self.qy6 / 6.0, ix: self.ix12 / 12.0 }
+    }
+}
+
+/// Area integrals of a region (signed by ring orientation).
+#[derive(Clone, Copy, Default, Debug, PartialEq)]
+pub struct Moments {
+    /// ∫ dA
+    pub area: f64,
+    /// ∫ y dA
+    pub qx: f64,
+    /// ∫ x dA
+    pub qy: f64,
+    /// ∫ y² dA
+    pub ix: f64,
+}
+
+impl std::ops::Add for Moments {
+    type Output = Moments;
+    fn add(self, o: Moments) -> Moments {
+        Moments { area: self.area + o.area, qx: self.qx + o.qx, qy: self.qy + o.qy, ix: self.ix + o.ix }
+    }
+}
+
+impl std::ops::Sub for Moments {
+    type Output = Moments;
+    fn sub(self, o: Moments) -> Moments {
+        Moments { area: self.area - o.area, qx: self.qx - o.qx, qy: self.qy - o.qy, ix: self.ix - o.ix }
+    }
+}
+
+impl Moments {
+    /// The moments scaled by a factor (a modular ratio, for transformed sections).
+    pub fn scaled(self, k: f64) -> Moments {
+        Moments { area: self.area * k, qx: self.qx * k, qy: self.qy * k, ix: self.ix * k }
+    }
+}
+
+fn signed_area(ring: &[P]) -> f64 {
+    let mut acc = Acc::default();
+    for &p in ring {
+        acc.push(p);
+    }
+    acc.close().area
+}
+
+#[inline]
+fn cut(p: P, q: P, y0: f64) -> P {
+    let t = (y0 - p[1]) / (q[1] - p[1]);
+    [p[0] + t * (q[0] - p[0]), y0]
+}
+
+/// Sutherland-Hodgman against the half-plane y >= y0, streamed into an accumulator or a
+/// point list. Against a single half-plane the result is exact for any simple ring: the
+/// extra edges it may add lie on the cut line and are traversed both ways, so they cancel.
+fn clip_ring(ring: &[P], y0: f64, mut emit: impl FnMut(P)) {
+    let n = ring.len();
+    for i in 0..n {
+        let p = ring[i];
+        let q = ring[(i + 1) % n];
+        let pin = p[1] >= y0;
+        let qin = q[1] >= y0;
+        if qin {
+            if !pin {
+                emit(cut(p, q, y0));
+            }
+            emit(q);
+        } else if pin {
+            emit(cut(p, q, y0));
+        }
+    }
+}
+
+fn ring_moments(ring: &[P]) -> Moments {
+    let mut acc = Acc::default();
+    for &p in ring {
+        acc.push(p);
+    }
+    acc.close()
+}
+
+fn ring_above(ring: &[P], y0: f64) -> Moments {
+    let mut acc = Acc::default();
+    clip_ring(ring, y0, |p| acc.push(p));
+    acc.close()
+}
+
+/// A polygon with holes.
+#[derive(Clone, Debug, Serialize, PartialEq)]
+pub struct Region {
+    pub outline: Vec<P>,
+    pub holes: Vec<Vec<P>>,
+}
+
+/// Properties of a region about its own centroid.
+#[derive(Clone, Copy, Debug, Serialize, PartialEq)]
+pub struct Props {
+    pub area: f64,
+    /// Centroid.
+    pub xc: f64,
+    pub yc: f64,
+    /// Second moment about the horizontal centroidal axis.
+    pub i: f64,
+    pub y_top: f64,
+    pub y_bot: f64,
+}
+
+impl Props {
+    pub fn from_moments(m: Moments, y_top: f64, y_bot: f64) -> Props {
+        let yc = m.qx / m.area;
+        Props { area: m.area, xc: m.qy / m.area, yc, i: m.ix - m.area * yc * yc, y_top, y_bot }
+    }
+    /// Distance from the centroid to the top fibre.
+    pub fn ct(&self) -> f64 {
+        self.y_top - self.yc
+    }
+    /// Distance from the centroid to the bottom fibre.
+    pub fn cb(&self) -> f64 {
+        self.yc - self.y_bot
+    }
+    pub fn st(&self) -> f64 {
+        self.i / self.ct()
+    }
+    pub fn sb(&self) -> f64 {
+        self.i / self.cb()
+    }
+    pub fn r2(&self) -> f64 {
+        self.i / self.area
+    }
+}
+
+impl Region {
+    /// A region from rings in any orientation: the outline is made counter-clockwise and
+    /// the holes clockwise.
+    pub fn new(mut outline: Vec<P>, mut holes: Vec<Vec<P>>) -> Region {
+        if signed_area(&outline) < 0.0 {
+            outline.reverse();
+        }
+        for h in &mut holes {
+            if signed_area(h) > 0.0 {
+                h.reverse();
+            }
+        }
+        Region { outline, holes }
+    }
+
+    pub fn rings(&self) -> impl Iterator<Item = &[P]> {
+        std::iter::once(self.outline.as_slice()).chain(self.holes.iter().map(|h| h.as_slice()))
+    }
+
+    pub fn moments(&self) -> Moments {
+        self.rings().map(ring_moments).fold(Moments::default(), |a, b| a + b)
+    }
+
+    /// Exact area integrals of the part of the region with y >= y0.
+    #[inline]
+    pub fn above(&self, y0: f64) -> Moments {
+        let mut m = ring_above(&self.outline, y0);
+        for h in &self.holes {
+            m = m + ring_above(h, y0);
+        }
+        m
+    }
+
+    /// The rings of the part above y0, for drawing (outline rings, then hole rings).
+    pub fn clipped_above(&self, y0: f64) -> (Vec<P>, Vec<Vec<P>>) {
+        let mut out = Vec::new();
+        clip_ring(&self.outline, y0, |p| out.push(p));
+        let holes = self
+            .holes
+            .iter()
+            .map(|h| {
+                let mut v = Vec::new();
+                clip_ring(h, y0, |p| v.push(p));
+                v
+            })
+            .filter(|v| v.len() >= 3)
+            .collect();
+        (out, holes)
+    }
+
+    pub fn y_top(&self) -> f64 {
+        self.outline.iter().map(|p| p[1]).fold(f64::NEG_INFINITY, f64::max)
+    }
+    pub fn y_bot(&self) -> f64 {
+        self.outline.iter().map(|p| p[1]).fold(f64::INFINITY, f64::min)
+    }
+    pub fn x_min(&self) -> f64 {
+        self.outline.iter().map(|p| p[0]).fold(f64::INFINITY, f64::min)
+    }
+    pub fn x_max(&self) -> f64 {
+        self.outline.iter().map(|p| p[0]).fold(f64::NEG_INFINITY, f64::max)
+    }
+
+    pub fn props(&self) -> Props {
+        Props::from_moments(self.moments(), self.y_top(), self.y_bot())
+    }
+
+    /// Total width of concrete cut by the horizontal line y (outline chords less hole
+    /// chords).
+    pub fn width_at(&self, y: f64) -> f64 {
+        fn chords(ring: &[P], y: f64) -> f64 {
+            let mut xs: Vec<f64> = Vec::new();
+            let n = ring.len();
+            for i in 0..n {
+                let p = ring[i];
+                let q = ring[(i + 1) % n];
+                if (p[1] <= y) != (q[1] <= y) {
+                    xs.push(cut(p, q, y)[0]);
+                }
+            }
+            xs.sort_by(f64::total_cmp);
+            xs.chunks(2).map(|c| if c.len() == 2 { c[1] - c[0] } else { 0.0 }).sum()
+        }
+        let mut w = chords(&self.outline, y);
+        for h in &self.holes {
+            w -= chords(h, y);
+        }
+        w.max(0.0)
+    }
+
+    /// The extent [x0, x1] of the outline's top edge (vertices at the top level).
+    pub fn top_extent(&self) -> (f64, f64) {
+        let top = self.y_top();
+        let tol = 1e-9 * (top - self.y_bot()).abs().max(1.0);
+        let xs = self.outline.iter().filter(|p| (p[1] - top).abs() <= tol).map(|p| p[0]);
+        let (lo, hi) = xs.fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), x| (lo.min(x), hi.max(x)));
+        (lo, hi)
+    }
+
+    /// Whether a point lies strictly inside the concrete (inside the outline, outside
+    /// every hole), at least `clear` from every edge.
+    pub fn contains(&self, p: P, clear: f64) -> bool {
+        if !point_in_ring(&self.outline, p) || self.holes.iter().any(|h| point_in_ring(h, p)) {
+            return false;
+        }
+        self.rings().all(|r| distance_to_ring(r, p) >= clear)
+    }
+}
+
+/// Even-odd point-in-polygon test.
+pub fn point_in_ring(ring: &[P], p: P) -> bool {
+    let n = ring.len();
+    let mut inside = false;
+    for i in 0..n {
+        let a = ring[i];
+        let b = ring[(i + 1) % n];
+        if (a[1] > p[1]) != (b[1] > p[1]) {
+            let x = a[0] + (p[1] - a[1]) / (b[1] - a[1]) * (b[0] - a[0]);
+            if p[0] < x {
+                inside = !inside;
+            }
+        }
+    }
+    inside
+}
+
+fn distance_to_segment(a: P, b: P, p: P) -> f64 {
+    let (dx, dy) = (b[0] - a[0], b[1] - a[1]);
+    let len2 = dx * dx + dy * dy;
+    let t = if len2 > 0.0 { (((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2).clamp(0.0, 1.0) } else { 0.0 };
+    let (cx, cy) = (a[0] + t * dx - p[0], a[1] + t * dy - p[1]);
+    (cx * cx + cy * cy).sqrt()
+}
+
+/// Shortest distance from a point to a ring's edges.
+pub fn distance_to_ring(ring: &[P], p: P) -> f64 {
+    let n = ring.len();
+    (0..n).map(|i| distance_to_segment(ring[i], ring[(i + 1) % n], p)).fold(f64::INFINITY, f64::min)
+}
+
+fn orient(a: P, b: P, c: P) -> f64 {
+    (b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0])
+}
+
+fn on_segment(a: P, b: P, p: P) -> bool {
+    p[0] >= a[0].min(b[0]) && p[0] <= a[0].max(b[0]) && p[1] >= a[1].min(b[1]) && p[1] <= a[1].max(b[1])
+}
+
+/// Whether two closed segments touch or cross.
+fn segments_meet(a: P, b: P, c: P, d: P) -> bool {
+    let (o1, o2, o3, o4) = (orient(a, b, c), orient(a, b, d), orient(c, d, a), orient(c, d, b));
+    if ((o1 > 0.0 && o2 < 0.0) || (o1 < 0.0 && o2 > 0.0)) && ((o3 > 0.0 && o4 < 0.0) || (o3 < 0.0 && o4 > 0.0)) {
+        return true;
+    }
+    (o1 == 0.0 && on_segment(a, b, c))
+        || (o2 == 0.0 && on_segment(a, b, d))
+        || (o3 == 0.0 && on_segment(c, d, a))
+        || (o4 == 0.0 && on_segment(c, d, b))
+}
+
+/// What is wrong with a ring, if anything.
+#[derive(Debug, Clone, PartialEq)]
+pub enum RingFault {
+    TooFewPoints(usize),
+    NotFinite(usize),
+    RepeatedPoint(usize),
+    /// Edges `i` and `j` cross or touch.
+    SelfIntersecting(usize, usize),
+    ZeroArea,
+}
+
+impl std::fmt::Display for RingFault {
+    fn fmt(&self, f: &mut std::fmt::Formatter) -> std::fmt::Result {
+        match self {
+            RingFault::TooFewPoints(n) => write!(f, "has {n} points; a polygon needs at least 3"),
+            RingFault::NotFinite(i) => write!(f, "point {} is not a finite number", i + 1),
+            RingFault::RepeatedPoint(i) => write!(f, "point {} repeats the point before it", i + 1),
+            RingFault::SelfIntersecting(i, j) => {
+                write!(f, "is not simple: edge {} crosses or touches edge {}", i + 1, j + 1)
+            }
+            RingFault::ZeroArea => write!(f, "encloses no area"),
+        }
+    }
+}
+
+/// Checks that a ring is a simple polygon with area.
+pub fn check_ring(ring: &[P]) -> Result<(), RingFault> {
+    let n = ring.len();
+    if n < 3 {
+        return Err(RingFault::TooFewPoints(n));
+    }
+    if let Some(i) = ring.iter().position(|p| !p[0].is_finite() || !p[1].is_finite()) {
+        return Err(RingFault::NotFinite(i));
+    }
+    for i in 0..n {
+        if ring[i] == ring[(i + 1) % n] {
+            return Err(RingFault::RepeatedPoint((i + 1) % n));
+        }
+    }
+    for i in 0..n {
+        let (a, b) = (ring[i], ring[(i + 1) % n]);
+        for j in i + 1..n {
+            // adjacent edges share a vertex; test them only for overlap (collinear fold-back)
+            let (c, d) = (ring[j], ring[(j + 1) % n]);
+            let adjacent = j == i + 1 || (i == 0 && j == n - 1);
+            if adjacent {
+                let shared = if j == i + 1 { b } else { a };
+                let (other1, other2) = if j == i + 1 { (a, d) } else { (b, c) };
+                if orient(shared, other1, other2) == 0.0 {
+                    // collinear: a fold-back if the two far ends lie on the same side
+                    let dot = (other1[0] - shared[0]) * (other2[0] - shared[0])
+                        + (other1[1] - shared[1]) * (other2[1] - shared[1]);
+                    if dot > 0.0 {
+                        return Err(RingFault::SelfIntersecting(i, j));
+                    }
+                }
+                continue;
+            }
+            if segments_meet(a, b, c, d) {
+                return Err(RingFault::SelfIntersecting(i, j));
+            }
+        }
+    }
+    let scale = ring.iter().map(|p| p[0].abs().max(p[1].abs())).fold(0.0, f64::max).max(1e-300);
+    if signed_area(ring).abs() <= 1e-12 * scale * scale {
+        return Err(RingFault::ZeroArea);
+    }
+    Ok(())
+}
+
+/// Whether two rings' edges meet anywhere.
+pub fn rings_meet(r: &[P], s: &[P]) -> bool {
+    let (n, m) = (r.len(), s.len());
+    (0..n).any(|i| (0..m).any(|j| segments_meet(r[i], r[(i + 1) % n], s[j], s[(j + 1) % m])))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn rect(w: f64, h: f64) -> Region {
+        Region::new(vec![[0.0, 0.0], [w, 0.0], [w, h], [0.0, h]], vec![])
+    }
+
+    #[test]
+    fn rectangle_properties() {
+        let p = rect(12.0, 24.0).props();
+        assert!((p.area - 288.0).abs() < 1e-9);
+        assert!((p.yc - 12.0).abs() < 1e-12);
+        assert!((p.i - 12.0 * 24f64.powi(3) / 12.0).abs() < 1e-6);
+    }
+
+    #[test]
+    fn clipping_is_exact_for_concave_rings() {
+        // a U shape: clipping below the notch bottom gives two separate pieces
+        let u = Region::new(
+            vec![[0.0, 0.0], [10.0, 0.0], [10.0, 10.0], [7.0, 10.0], [7.0, 3.0], [3.0, 3.0], [3.0, 10.0], [0.0, 10.0]],
+            vec![],
+        );
+        let m = u.above(5.0);
+        assert!((m.area - 2.0 * 3.0 * 5.0).abs() < 1e-9);
+        assert!((m.qx / m.area - 7.5).abs() < 1e-9);
+    }
+
+    #[test]
+    fn holes_subtract() {
+        let r = Region::new(
+            vec![[0.0, 0.0], [10.0, 0.0], [10.0, 10.0], [0.0, 10.0]],
+            vec![vec![[2.0, 2.0], [4.0, 2.0], [4.0, 4.0], [2.0, 4.0]]],
+        );
+        assert!((r.moments().area - 96.0).abs() < 1e-12);
+        assert!((r.above(3.0).area - (70.0 - 2.0)).abs() < 1e-12);
+        assert!((r.width_at(3.0) - 8.0).abs() < 1e-12);
+    }
+
+    #[test]
+    fn detects_bad_rings() {
+        assert_eq!(check_ring(&[[0.0, 0.0], [1.0, 1.0]]), Err(RingFault::TooFewPoints(2)));
+        let bow = [[0.0, 0.0], [1.0, 1.0], [1.0, 0.0], [0.0, 1.0]];
+        assert!(matches!(check_ring(&bow), Err(RingFault::SelfIntersecting(..))));
+        assert!(check_ring(&[[0.0, 0.0], [1.0, 0.0], [2.0, 0.0]]).is_err());
+    }
+}

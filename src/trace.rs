@@ -1,0 +1,583 @@
+//! The trace: every step of a computation as data.
+//!
+//! A [`Step`] records what was computed (title, symbol), from what (named inputs with
+//! values and units), by which formula (an [`Expr`] tree that both evaluates and prints
+//! itself as Typst math and as plain text), the result and the clause or source.
+//!
+//! The engine computes with plain Rust and records the step beside it; the test
+//! `tests/trace_replay.rs` re-evaluates every recorded formula from its recorded inputs
+//! and must get the recorded result, so the formula shown is the formula computed.
+//!
+//! Invariant: symbol strings and formula text are built only from `&'static str`
+//! constants of this crate and formatted numbers. No user text ever enters them, so the
+//! templates may evaluate them as Typst math.
+
+use serde::{Deserialize, Serialize};
+
+/// What kind of quantity a value is; the payload resolves it to a unit name.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Unit {
+    Length,
+    Area,
+    /// Second moment of area (length⁴).
+    Inertia,
+    /// Section modulus (length³).
+    Modulus,
+    Stress,
+    Force,
+    Moment,
+    /// Strain, shown as ×10⁻³.
+    Strain,
+    /// Curvature, 1/length, shown as ×10⁻⁶.
+    Curvature,
+    /// A pure number (β1, φ, a ratio).
+    Ratio,
+    /// Per cent.
+    Percent,
+}
+
+impl Unit {
+    /// The unit's name in a unit system ("" for pure numbers).
+    pub fn name(self, system: crate::units::System) -> &'static str {
+        use crate::units::System::{Si, Us};
+        match (self, system) {
+            (Unit::Length, Us) => "in",
+            (Unit::Length, Si) => "mm",
+            (Unit::Area, Us) => "in²",
+            (Unit::Area, Si) => "mm²",
+            (Unit::Inertia, Us) => "in⁴",
+            (Unit::Inertia, Si) => "mm⁴",
+            (Unit::Modulus, Us) => "in³",
+            (Unit::Modulus, Si) => "mm³",
+            (Unit::Stress, Us) => "ksi",
+            (Unit::Stress, Si) => "MPa",
+            (Unit::Force, Us) => "kip",
+            (Unit::Force, Si) => "kN",
+            (Unit::Moment, Us) => "kip-ft",
+            (Unit::Moment, Si) => "kN-m",
+            (Unit::Curvature, Us) => "1/in",
+            (Unit::Curvature, Si) => "1/mm",
+            (Unit::Percent, _) => "%",
+            (Unit::Strain, _) | (Unit::Ratio, _) => "",
+        }
+    }
+}
+
+/// A symbol, in Typst math and in plain text.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Symbol {
+    pub math: String,
+    pub plain: String,
+}
+
+impl Symbol {
+    /// A fixed symbol.
+    pub fn new(math: &'static str, plain: &'static str) -> Symbol {
+        Symbol { math: math.to_string(), plain: plain.to_string() }
+    }
+
+    /// A symbol with a layer (or other) index added to its subscript:
+    /// `indexed("f", "\"se\"", "fse", 2)` is f with subscript "se,2".
+    pub fn indexed(base: &'static str, sub: &'static str, plain: &'static str, i: usize) -> Symbol {
+        let math = if sub.is_empty() { format!("{base}_({i})") } else { format!("{base}_({sub},{i})") };
+        Symbol { math, plain: format!("{plain},{i}") }
+    }
+}
+
+/// A formula as a small expression tree over the step's inputs.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "op", content = "args", rename_all = "snake_case")]
+pub enum Expr {
+    /// The step's input with this index.
+    Var(usize),
+    /// A constant written in the formula.
+    Num(f64),
+    Add(Vec<Expr>),
+    Sub(Box<Expr>, Box<Expr>),
+    Mul(Vec<Expr>),
+    Div(Box<Expr>, Box<Expr>),
+    Neg(Box<Expr>),
+    Pow(Box<Expr>, Box<Expr>),
+    Sqrt(Box<Expr>),
+    Min(Vec<Expr>),
+    Max(Vec<Expr>),
+    /// A unit conversion: the value of the inner formula divided by `divisor`. Shown in
+    /// the substituted line only (`… / 12`, or `… × 1000` for a divisor of 0.001), not
+    /// in the symbolic one.
+    Per(Box<Expr>, f64),
+}
+
+/// Shorthands for building formulas.
+pub mod f {
+    use super::Expr;
+    pub fn v(i: usize) -> Expr {
+        Expr::Var(i)
+    }
+    pub fn n(x: f64) -> Expr {
+        Expr::Num(x)
+    }
+    pub fn add(xs: Vec<Expr>) -> Expr {
+        Expr::Add(xs)
+    }
+    pub fn sub(a: Expr, b: Expr) -> Expr {
+        Expr::Sub(Box::new(a), Box::new(b))
+    }
+    pub fn mul(xs: Vec<Expr>) -> Expr {
+        Expr::Mul(xs)
+    }
+    pub fn div(a: Expr, b: Expr) -> Expr {
+        Expr::Div(Box::new(a), Box::new(b))
+    }
+    pub fn neg(a: Expr) -> Expr {
+        Expr::Neg(Box::new(a))
+    }
+    pub fn pow(a: Expr, b: Expr) -> Expr {
+        Expr::Pow(Box::new(a), Box::new(b))
+    }
+    pub fn sqrt(a: Expr) -> Expr {
+        Expr::Sqrt(Box::new(a))
+    }
+    pub fn min(xs: Vec<Expr>) -> Expr {
+        Expr::Min(xs)
+    }
+    pub fn max(xs: Vec<Expr>) -> Expr {
+        Expr::Max(xs)
+    }
+    /// `a` divided by a unit-conversion divisor; 1 leaves `a` as it is.
+    pub fn per(a: Expr, divisor: f64) -> Expr {
+        if divisor == 1.0 { a } else { Expr::Per(Box::new(a), divisor) }
+    }
+}
+
+impl Expr {
+    /// Evaluates the formula with the given input values.
+    pub fn eval(&self, x: &[f64]) -> f64 {
+        match self {
+            Expr::Var(i) => x.get(*i).copied().unwrap_or(f64::NAN),
+            Expr::Num(v) => *v,
+            Expr::Add(xs) => xs.iter().map(|e| e.eval(x)).sum(),
+            Expr::Sub(a, b) => a.eval(x) - b.eval(x),
+            Expr::Mul(xs) => xs.iter().map(|e| e.eval(x)).product(),
+            Expr::Div(a, b) => a.eval(x) / b.eval(x),
+            Expr::Neg(a) => -a.eval(x),
+            Expr::Pow(a, b) => a.eval(x).powf(b.eval(x)),
+            Expr::Sqrt(a) => a.eval(x).sqrt(),
+            Expr::Min(xs) => xs.iter().map(|e| e.eval(x)).fold(f64::INFINITY, f64::min),
+            Expr::Max(xs) => xs.iter().map(|e| e.eval(x)).fold(f64::NEG_INFINITY, f64::max),
+            Expr::Per(a, d) => a.eval(x) / d,
+        }
+    }
+
+    fn prec(&self) -> u8 {
+        match self {
+            Expr::Add(_) | Expr::Sub(..) => 1,
+            Expr::Neg(_) => 2,
+            Expr::Mul(_) => 3,
+            Expr::Per(..) => 3,
+            Expr::Div(..) => 4,
+            Expr::Pow(..) => 5,
+            _ => 6,
+        }
+    }
+}
+
+/// How a formula is printed.
+#[derive(Clone, Copy, PartialEq, Eq)]
+pub enum Style {
+    /// Typst math.
+    Math,
+    /// Plain text for terminals and CSV.
+    Plain,
+}
+
+/// Prints a formula: symbolically (`values = None`) or with the input values substituted.
+pub struct Printer<'a> {
+    pub style: Style,
+    pub symbols: &'a [&'a Symbol],
+    pub values: Option<&'a [String]>,
+}
+
+impl Printer<'_> {
+    pub fn print(&self, e: &Expr) -> String {
+        let mut s = String::new();
+        self.write(e, &mut s);
+        s
+    }
+
+    fn atom(&self, i: usize) -> String {
+        match self.values {
+            Some(vals) => {
+                let v = vals.get(i).cloned().unwrap_or_default();
+                if v.starts_with('-') { format!("({v})") } else { v }
+            }
+            None => match self.style {
+                Style::Math => self.symbols.get(i).map(|s| s.math.clone()).unwrap_or_default(),
+                Style::Plain => self.symbols.get(i).map(|s| s.plain.clone()).unwrap_or_default(),
+            },
+        }
+    }
+
+    fn child(&self, e: &Expr, min_prec: u8, out: &mut String) {
+        if e.prec() < min_prec {
+            out.push('(');
+            self.write(e, out);
+            out.push(')');
+        } else {
+            self.write(e, out);
+        }
+    }
+
+    fn write(&self, e: &Expr, out: &mut String) {
+        let math = self.style == Style::Math;
+        match e {
+            Expr::Var(i) => out.push_str(&self.atom(*i)),
+            Expr::Num(v) => {
+                let t = const_text(*v);
+                if *v < 0.0 {
+                    out.push('(');
+                    out.push_str(&t);
+                    out.push(')');
+                } else {
+                    out.push_str(&t);
+                }
+            }
+            Expr::Add(xs) => {
+                for (k, x) in xs.iter().enumerate() {
+                    if k > 0 {
+                        if let Expr::Neg(inner) = x {
+                            out.push_str(" - ");
+                            self.child(inner, 2, out);
+                            continue;
+                        }
+                        out.push_str(" + ");
+                    }
+                    self.child(x, 1, out);
+                }
+            }
+            Expr::Sub(a, b) => {
+                self.child(a, 1, out);
+                out.push_str(" - ");
+                self.child(b, 2, out);
+            }
+            Expr::Mul(xs) => {
+                let symbolic = self.values.is_none();
+                for (k, x) in xs.iter().enumerate() {
+                    if k > 0 {
+                        let both_vars = symbolic && !matches!(x, Expr::Num(_));
+                        out.push_str(match (math, both_vars) {
+                            (true, true) => " ",
+                            (true, false) => " times ",
+                            (false, _) => " * ",
+                        });
+                    }
+                    self.child(x, 3, out);
+                }
+            }
+            Expr::Div(a, b) => {
+                if math {
+                    out.push_str("frac(");
+                    self.write(a, out);
+                    out.push_str(", ");
+                    self.write(b, out);
+                    out.push(')');
+                } else {
+                    self.child(a, 3, out);
+                    out.push_str(" / ");
+                    self.child(b, 5, out);
+                }
+            }
+            Expr::Neg(a) => {
+                out.push('-');
+                self.child(a, 3, out);
+            }
+            Expr::Pow(a, b) => {
+                self.child(a, 6, out);
+                if math {
+                    out.push_str("^(");
+                    self.write(b, out);
+                    out.push(')');
+                } else {
+                    out.push('^');
+                    self.child(b, 6, out);
+                }
+            }
+            Expr::Sqrt(a) => {
+                out.push_str("sqrt(");
+                self.write(a, out);
+                out.push(')');
+            }
+            Expr::Min(xs) | Expr::Max(xs) => {
+                out.push_str(if matches!(e, Expr::Min(_)) { "min(" } else { "max(" });
+                for (k, x) in xs.iter().enumerate() {
+                    if k > 0 {
+                        out.push_str(", ");
+                    }
+                    self.write(x, out);
+                }
+                out.push(')');
+            }
+            Expr::Per(a, d) => {
+                if self.values.is_none() {
+                    self.write(a, out);
+                } else {
+                    self.child(a, 4, out);
+                    if *d < 1.0 {
+                        out.push_str(if math { " times " } else { " * " });
+                        out.push_str(&const_text(1.0 / *d));
+                    } else {
+                        out.push_str(" / ");
+                        out.push_str(&const_text(*d));
+                    }
+                }
+            }
+        }
+    }
+}
+
+/// A constant as it is written in a formula: the shortest exact decimal; powers of ten
+/// from a million up as 10^k.
+pub fn const_text(v: f64) -> String {
+    let v = if v != 0.0 && (v - v.round()).abs() < 1e-9 * v.abs() { v.round() } else { v };
+    let a = v.abs();
+    if a >= 1e6 && (a.log10().fract()).abs() < 1e-12 {
+        let k = a.log10().round() as i32;
+        let s = format!("10^{k}");
+        return if v < 0.0 { format!("-{s}") } else { s };
+    }
+    format!("{v}")
+}
+
+/// A value rounded for display: about four significant figures, never in scientific
+/// notation. Strains and curvatures are shown scaled (see [`scaled`]).
+pub fn show(v: f64) -> String {
+    if !v.is_finite() {
+        return "—".to_string();
+    }
+    let a = v.abs();
+    if a != 0.0 && a < 1e-4 {
+        return format!("{v:.1e}");
+    }
+    let decimals = if a >= 1000.0 {
+        0
+    } else if a >= 100.0 {
+        1
+    } else if a >= 10.0 {
+        2
+    } else if a >= 1.0 {
+        3
+    } else if a == 0.0 {
+        return "0".to_string();
+    } else {
+        // four significant figures below 1
+        let mag = a.log10().floor() as i32; // -1 for 0.1..1
+        (3 - mag).clamp(1, 12) as usize
+    };
+    let mut s = format!("{v:.decimals$}");
+    if a < 1.0 && s.contains('.') {
+        // 0.7500 -> 0.75, keep at least two decimals
+        while s.ends_with('0') && s.len() - s.find('.').unwrap_or(0) > 3 {
+            s.pop();
+        }
+    }
+    if s == "-0" || s.starts_with("-0") && s.trim_start_matches(['-', '0', '.']).is_empty() {
+        s = s.trim_start_matches('-').to_string();
+    }
+    s
+}
+
+/// The scale a unit is shown at: strains ×10⁻³, curvatures ×10⁻⁶.
+pub fn scale(unit: Unit) -> (f64, &'static str, &'static str) {
+    match unit {
+        Unit::Strain => (1e3, "×10⁻³", "10^(-3)"),
+        Unit::Curvature => (1e6, "×10⁻⁶", "10^(-6)"),
+        _ => (1.0, "", ""),
+    }
+}
+
+/// A value in its shown scale ("6.123" for a strain of 0.006123).
+pub fn scaled(v: f64, unit: Unit) -> String {
+    show(v * scale(unit).0)
+}
+
+/// A value as it is substituted into a formula: strains as plain decimals.
+pub fn substituted(v: f64, unit: Unit) -> String {
+    match unit {
+        Unit::Strain | Unit::Curvature => {
+            if v == 0.0 {
+                return "0".to_string();
+            }
+            let mag = v.abs().log10().floor() as i32;
+            let decimals = (3 - mag).clamp(1, 15) as usize;
+            format!("{v:.decimals$}")
+        }
+        _ => show(v),
+    }
+}
+
+/// One named input of a step.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Input {
+    pub symbol: Symbol,
+    pub value: f64,
+    pub unit: Unit,
+}
+
+/// One recorded step.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Step {
+    /// Stable identifier, unique within the member's trace ("prestress.fse.1").
+    pub id: String,
+    /// The part of the calculation it belongs to ("section", "prestress", "strength"...).
+    pub group: String,
+    pub title: String,
+    pub symbol: Symbol,
+    /// The formula; `None` for a value taken from the input or a table.
+    pub formula: Option<Expr>,
+    pub inputs: Vec<Input>,
+    pub value: f64,
+    pub unit: Unit,
+    /// Code clause, table or published source.
+    pub clause: Option<String>,
+    pub note: Option<String>,
+}
+
+impl Step {
+    pub fn new(group: &str, id: impl Into<String>, title: impl Into<String>, symbol: Symbol) -> Step {
+        Step {
+            id: id.into(),
+            group: group.to_string(),
+            title: title.into(),
+            symbol,
+            formula: None,
+            inputs: Vec::new(),
+            value: f64::NAN,
+            unit: Unit::Ratio,
+            clause: None,
+            note: None,
+        }
+    }
+    pub fn formula(mut self, e: Expr) -> Step {
+        self.formula = Some(e);
+        self
+    }
+    pub fn input(mut self, symbol: Symbol, value: f64, unit: Unit) -> Step {
+        self.inputs.push(Input { symbol, value, unit });
+        self
+    }
+    pub fn result(mut self, value: f64, unit: Unit) -> Step {
+        self.value = value;
+        self.unit = unit;
+        self
+    }
+    pub fn clause(mut self, c: impl Into<String>) -> Step {
+        self.clause = Some(c.into());
+        self
+    }
+    pub fn note(mut self, n: impl Into<String>) -> Step {
+        self.note = Some(n.into());
+        self
+    }
+
+    /// Re-evaluates the formula from the recorded inputs.
+    pub fn replay(&self) -> Option<f64> {
+        let x: Vec<f64> = self.inputs.iter().map(|i| i.value).collect();
+        self.formula.as_ref().map(|e| e.eval(&x))
+    }
+
+    /// The formula printed symbolically and with values substituted.
+    pub fn printed(&self, style: Style) -> Option<(String, String)> {
+        let e = self.formula.as_ref()?;
+        let syms: Vec<&Symbol> = self.inputs.iter().map(|i| &i.symbol).collect();
+        let vals: Vec<String> = self.inputs.iter().map(|i| substituted(i.value, i.unit)).collect();
+        let sym = Printer { style, symbols: &syms, values: None }.print(e);
+        let sub = Printer { style, symbols: &syms, values: Some(&vals) }.print(e);
+        Some((sym, sub))
+    }
+
+    /// One line of plain text: `fse = fpj - Δfp = 202.5 - 35 = 167.5 ksi  [20.3.2.5.1]`.
+    pub fn plain_line(&self, system: crate::units::System) -> String {
+        let mut s = format!("{} = ", self.symbol.plain);
+        let constant = matches!(self.formula, Some(Expr::Num(_)));
+        if let Some((sym, sub)) = self.printed(Style::Plain).filter(|_| !constant) {
+            s.push_str(&sym);
+            s.push_str(" = ");
+            if sub != sym {
+                s.push_str(&sub);
+                s.push_str(" = ");
+            }
+        }
+        let (_, tag, _) = scale(self.unit);
+        s.push_str(&scaled(self.value, self.unit));
+        if !tag.is_empty() {
+            s.push(' ');
+            s.push_str(tag);
+        }
+        let name = self.unit.name(system);
+        if !name.is_empty() {
+            s.push(' ');
+            s.push_str(name);
+        }
+        s
+    }
+}
+
+/// A recorder of steps. When off, nothing is built: the closures are never called, so
+/// the fast path (`check`, benchmarks) pays nothing for the trace.
+#[derive(Debug, Default)]
+pub struct Trace {
+    on: bool,
+    pub steps: Vec<Step>,
+}
+
+impl Trace {
+    pub fn new(on: bool) -> Trace {
+        Trace { on, steps: Vec::new() }
+    }
+    pub fn on(&self) -> bool {
+        self.on
+    }
+    /// Records the step the closure builds, if recording.
+    #[inline]
+    pub fn rec(&mut self, build: impl FnOnce() -> Step) {
+        if self.on {
+            self.steps.push(build());
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::f::*;
+    use super::*;
+
+    #[test]
+    fn prints_and_evaluates() {
+        let a = Symbol::new("A_\"ps\"", "Aps");
+        let fp = Symbol::new("f_\"ps\"", "fps");
+        let e = per(mul(vec![v(0), v(1)]), 1000.0);
+        let syms = [&a, &fp];
+        let vals = ["1184".to_string(), "1650".to_string()];
+        let p = Printer { style: Style::Math, symbols: &syms, values: None };
+        assert_eq!(p.print(&e), "A_\"ps\" f_\"ps\"");
+        let p = Printer { style: Style::Plain, symbols: &syms, values: Some(&vals) };
+        assert_eq!(p.print(&e), "(1184 * 1650) / 1000");
+        assert_eq!(e.eval(&[1184.0, 1650.0]), 1953.6);
+        let d = div(n(0.04), sub(v(0), n(0.007)));
+        let p = Printer { style: Style::Math, symbols: &syms, values: None };
+        assert_eq!(p.print(&d), "frac(0.04, A_\"ps\" - 0.007)");
+    }
+
+    #[test]
+    fn shows_values() {
+        assert_eq!(show(12345.6), "12346");
+        assert_eq!(show(245.04), "245.0");
+        assert_eq!(show(7.3851), "7.385");
+        assert_eq!(show(0.75), "0.75");
+        assert_eq!(show(0.84167), "0.8417");
+        assert_eq!(show(0.9), "0.90");
+        assert_eq!(show(-0.0), "0");
+        assert_eq!(scaled(0.0061234, Unit::Strain), "6.123");
+        assert_eq!(substituted(0.0061234, Unit::Strain), "0.006123");
+    }
+}
