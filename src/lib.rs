@@ -15,6 +15,8 @@ pub mod input;
 pub mod material;
 pub mod output;
 pub mod present;
+pub mod report;
+pub mod seal;
 pub mod section;
 pub mod starter;
 pub mod trace;

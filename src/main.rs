@@ -4,7 +4,7 @@
 use clap::{Parser, Subcommand, ValueEnum};
 use std::path::PathBuf;
 use std::process::ExitCode;
-use strainsheet::{Error, analysis, input, output, present, starter};
+use strainsheet::{Error, analysis, input, output, present, report, seal, starter};
 
 #[derive(Parser)]
 #[command(
@@ -51,6 +51,19 @@ enum Cmd {
         #[arg(long)]
         json: bool,
     },
+    /// Write the calculation package (PDF/A-3b) and its SHA-256 sidecar.
+    Report {
+        file: PathBuf,
+        /// Output file (default: the input's name with .pdf).
+        #[arg(short, long)]
+        output: Option<PathBuf>,
+        /// Replace existing output files.
+        #[arg(long)]
+        overwrite: bool,
+        /// Use the templates in this folder instead of the built-in ones.
+        #[arg(long, value_name = "DIR")]
+        templates: Option<PathBuf>,
+    },
     /// Print every recorded step of the computation, for review.
     Trace {
         file: PathBuf,
@@ -82,6 +95,26 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             } else {
                 print!("{}", present::check_table(&pkg, &a));
             }
+            Ok(if a.pass() { ExitCode::SUCCESS } else { ExitCode::from(1) })
+        }
+        Cmd::Report { file, output, overwrite, templates } => {
+            let out = output.unwrap_or_else(|| file.with_extension("pdf"));
+            let templates = match templates {
+                Some(dir) => report::Templates::from_dir(&dir)?,
+                None => report::Templates::builtin(),
+            };
+            let (src, pkg) = input::load(&file)?;
+            let a = analysis::analyze(&pkg, true)?;
+            let r = report::render(&pkg, &src, &a, &templates)?;
+            let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
+            let sidecar = seal::sidecar(&r.pdf, &name);
+            let mut side_path = out.clone().into_os_string();
+            side_path.push(".sha256");
+            output::write_all(&[(out.clone(), r.pdf), (PathBuf::from(side_path), sidecar.into_bytes())], overwrite)?;
+            for w in &pkg.warnings {
+                eprintln!("warning: {}: {}: {}", w.at, w.key, w.message);
+            }
+            eprintln!("wrote {} ({} sheets, content SHA-256 {})", out.display(), r.pages, r.hash);
             Ok(if a.pass() { ExitCode::SUCCESS } else { ExitCode::from(1) })
         }
         Cmd::Trace { file, member, format } => {

@@ -326,7 +326,8 @@ impl Printer<'_> {
                         out.push_str(if math { " times " } else { " * " });
                         out.push_str(&const_text(1.0 / *d));
                     } else {
-                        out.push_str(" / ");
+                        // a literal slash in math: a conversion, not a fraction
+                        out.push_str(if math { " \\/ " } else { " / " });
                         out.push_str(&const_text(*d));
                     }
                 }

@@ -6,7 +6,11 @@ use strainsheet::{analysis, input};
 
 fn examples() -> Vec<std::path::PathBuf> {
     let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("examples");
-    let mut v: Vec<_> = std::fs::read_dir(dir).unwrap().map(|e| e.unwrap().path()).filter(|p| p.extension().is_some_and(|e| e == "toml")).collect();
+    let mut v: Vec<_> = std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.extension().is_some_and(|e| e == "toml"))
+        .collect();
     v.sort();
     v
 }
@@ -45,7 +49,8 @@ fn step_ids_are_unique_per_member() {
         let (_, pkg) = input::load(&path).unwrap();
         let a = analysis::analyze(&pkg, true).unwrap();
         for m in &a.members {
-            let mut ids: Vec<&str> = m.trace.iter().chain(m.locations.iter().flat_map(|l| l.trace.iter())).map(|s| s.id.as_str()).collect();
+            let mut ids: Vec<&str> =
+                m.trace.iter().chain(m.locations.iter().flat_map(|l| l.trace.iter())).map(|s| s.id.as_str()).collect();
             let n = ids.len();
             ids.sort();
             ids.dedup();
@@ -63,7 +68,13 @@ fn trace_agrees_with_results() {
         let fast = analysis::analyze(&pkg, false).unwrap();
         for (m, f) in a.members.iter().zip(&fast.members) {
             for (l, lf) in m.locations.iter().zip(&f.locations) {
-                let get = |id: &str| l.trace.iter().find(|s| s.id.ends_with(id)).map(|s| s.value).unwrap_or_else(|| panic!("no step {id}"));
+                let get = |id: &str| {
+                    l.trace
+                        .iter()
+                        .find(|s| s.id.ends_with(id))
+                        .map(|s| s.value)
+                        .unwrap_or_else(|| panic!("no step {id}"))
+                };
                 assert_eq!(get("strength.Mn"), l.mn);
                 assert_eq!(get(".c"), l.c);
                 assert_eq!(get("phiMn"), l.phi_mn);

@@ -1,0 +1,422 @@
+//! The payload: everything the package shows, as JSON. It holds the program version, the
+//! parsed input, every result and the whole trace, with each displayed number also as
+//! the text it is printed as (formatted here, never in the templates). Its canonical
+//! bytes are hashed (see [`crate::seal`]) and attached to the PDF.
+
+use crate::analysis::{Analysis, LocationResult, MemberResult};
+use crate::input::{Package, Source};
+use crate::trace::{Step, Style, Unit, scale, scaled, show};
+use crate::units::System;
+use serde_json::{Map, Value, json};
+
+/// What the templates print for a unit.
+fn unit_name(u: Unit, sys: System) -> &'static str {
+    u.name(sys)
+}
+
+/// A value as Typst math: "6.123 times 10^(-3)" for a strain.
+fn shown_math(v: f64, u: Unit) -> String {
+    let (_, _, tag) = scale(u);
+    let s = scaled(v, u);
+    let s = if let Some(rest) = s.strip_prefix('-') { format!("-{rest}") } else { s };
+    let s = math_number(&s);
+    if tag.is_empty() { s } else { format!("{s} times {tag}") }
+}
+
+/// Numbers in scientific notation ("9.4e-13") written as Typst math.
+fn math_number(s: &str) -> String {
+    match s.split_once('e') {
+        Some((m, e)) => format!("{m} times 10^({})", e.trim_start_matches('+')),
+        None => s.to_string(),
+    }
+}
+
+/// A step as the templates read it.
+pub fn step_view(st: &Step, sys: System) -> Value {
+    let constant = matches!(st.formula, Some(crate::trace::Expr::Num(_)));
+    let math = st.printed(Style::Math).filter(|_| !constant);
+    let (formula, subst) = match &math {
+        Some((f, s)) => (Some(f.clone()), if s != f { Some(s.clone()) } else { None }),
+        None => (None, None),
+    };
+    let short = st.id.split_once('.').filter(|(p, _)| p.starts_with('L')).map_or(st.id.as_str(), |(_, rest)| rest);
+    json!({
+        "id": st.id,
+        "short": short,
+        "group": st.group,
+        "title": st.title,
+        "sym": st.symbol.math,
+        "plain": st.symbol.plain,
+        "formula": formula,
+        "subst": subst,
+        "value": st.value,
+        "shown": scaled(st.value, st.unit),
+        "shown_math": shown_math(st.value, st.unit),
+        "scale": scale(st.unit).1,
+        "unit": unit_name(st.unit, sys),
+        "clause": st.clause,
+        "note": st.note,
+        "tree": st.formula,
+        "inputs": st.inputs.iter().map(|i| json!({
+            "sym": i.symbol.math,
+            "plain": i.symbol.plain,
+            "value": i.value,
+            "unit": unit_name(i.unit, sys),
+            "kind": i.unit,
+        })).collect::<Vec<_>>(),
+    })
+}
+
+fn steps_view(steps: &[Step], sys: System) -> (Value, Value) {
+    let list: Vec<Value> = steps.iter().map(|s| step_view(s, sys)).collect();
+    let mut by = Map::new();
+    for (i, v) in list.iter().enumerate() {
+        if let Some(k) = v["short"].as_str() {
+            by.insert(k.to_string(), json!(i));
+        }
+    }
+    (Value::Array(list), Value::Object(by))
+}
+
+fn opt(v: Option<f64>) -> Value {
+    match v {
+        Some(x) if x.is_finite() => json!(show(x)),
+        _ => json!("—"),
+    }
+}
+
+fn location_view(l: &LocationResult, sys: System) -> Value {
+    let mut v = serde_json::to_value(l).unwrap_or(Value::Null);
+    let (steps, by) = steps_view(&l.trace, sys);
+    let obj = v.as_object_mut().expect("a location serialises as an object");
+    obj.remove("trace");
+    obj.insert("steps".into(), steps);
+    obj.insert("by_id".into(), by);
+    let iters: Vec<Value> = l
+        .iterations
+        .iter()
+        .map(|t| {
+            json!({
+                "k": t.k.to_string(),
+                "method": t.method,
+                "c": show(t.c),
+                "a": show(t.a),
+                "eps": scaled(t.eps, Unit::Strain),
+                "stress": show(t.stress),
+                "cc": show(t.cc),
+                "t": show(t.t),
+                "residual": if t.residual == 0.0 { "0".to_string() } else { format!("{:.2e}", t.residual) },
+            })
+        })
+        .collect();
+    obj.insert("iterations_shown".into(), Value::Array(iters));
+    let layers = |ls: &[crate::analysis::LayerOut]| -> Vec<Value> {
+        ls.iter()
+            .map(|s| {
+                json!({
+                    "kind": s.kind,
+                    "index": s.index,
+                    "label": s.label,
+                    "area": show(s.area),
+                    "unit_area": show(s.unit_area),
+                    "depth": show(s.depth),
+                    "eps1": s.eps1.map(|e| scaled(e, Unit::Strain)),
+                    "eps2": s.eps2.map(|e| scaled(e, Unit::Strain)),
+                    "eps3": scaled(s.eps3, Unit::Strain),
+                    "eps": scaled(s.eps, Unit::Strain),
+                    "stress": show(s.stress),
+                    "force": show(s.force),
+                    "fse": s.fse.map(show),
+                    "cap": s.cap.map(show),
+                    "active": s.active,
+                })
+            })
+            .collect()
+    };
+    obj.insert("strands_shown".into(), Value::Array(layers(&l.strands)));
+    obj.insert("bars_shown".into(), Value::Array(layers(&l.bars)));
+    let u = sys.names();
+    obj.insert(
+        "shown".into(),
+        json!({
+            "x": l.x.map(show),
+            "c": show(l.c),
+            "a": show(l.a),
+            "mn": show(l.mn),
+            "phi": show(l.phi),
+            "phi_mn": show(l.phi_mn),
+            "mu": show(l.mu),
+            "ratio": show(l.ratio),
+            "mcr": show(l.mcr),
+            "min_required": show(l.min_reinforcement.required),
+            "eps_t": scaled(l.eps_t, Unit::Strain),
+            "pe": show(l.pe),
+            "e": show(l.e),
+            "cc": show(l.cc),
+            "dc": show(l.dc),
+            "closure": format!("{:.1e}", l.closure),
+            "trials": l.iterations.len().to_string(),
+            "approx_mn": opt(l.approximate.mn),
+            "approx_fps": opt(l.approximate.fps),
+            "approx_diff": opt(l.approximate.difference),
+            "other_mn": opt(l.other_block.as_ref().map(|o| o.mn)),
+            "max_strand_strain": scaled(l.max_strand_strain, Unit::Strain),
+            "x_label": match l.x { Some(x) => format!("x = {} {}", show(x), u.length), None => "strands taken as fully developed".into() },
+        }),
+    );
+    v
+}
+
+fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: System) -> Value {
+    let (steps, by) = steps_view(&m.trace, sys);
+    let u = sys.names();
+    let mut rows: Vec<Value> = Vec::new();
+    let mut row = |k: &str, v: String| rows.push(json!([k, v]));
+    row("Section", input.shape.name().to_string());
+    for (k, v) in shape_dims(&input.shape) {
+        row(k, format!("{} {}", show(v), u.length));
+    }
+    row("Precast concrete f'c", format!("{} {}", show(input.concrete.fc), u.stress));
+    if let Some(t) = &input.topping {
+        row(
+            "Topping",
+            format!(
+                "{} {} thick, {} {} wide, f'c = {} {}",
+                show(t.thickness),
+                u.length,
+                show(t.width),
+                u.length,
+                show(t.concrete.fc),
+                u.stress
+            ),
+        );
+    }
+    if let Some(l) = input.length {
+        row("Span", format!("{} {}", show(l), u.length));
+    }
+    row(
+        "Member kind",
+        match input.kind {
+            crate::input::model::Kind::Beam => "beam (ACI 318-19 Ch. 9)".to_string(),
+            crate::input::model::Kind::OneWaySlab => "one-way slab (ACI 318-19 Ch. 7)".to_string(),
+        },
+    );
+    let strands: Vec<Value> = input
+        .strands
+        .iter()
+        .enumerate()
+        .map(|(i, s)| {
+            let level = match s.profile {
+                crate::input::model::Profile::Straight { depth } => format!("depth {} {}", show(depth), u.length),
+                crate::input::model::Profile::Harped { depth_end, depth_harp, harp_x } => format!(
+                    "harped: depth {} at end, {} from x = {} {}",
+                    show(depth_end),
+                    show(depth_harp),
+                    show(harp_x),
+                    u.length
+                ),
+            };
+            json!({
+                "index": i + 1,
+                "count": s.count,
+                "size": s.size.unwrap_or("non-standard"),
+                "diameter": show(s.diameter),
+                "area": show(s.area),
+                "total_area": show(s.total_area()),
+                "fpu": show(s.fpu),
+                "fse": show(s.fse),
+                "level": level,
+                "model": s.model,
+                "debonded": if s.debonded_length > 0.0 { Some(show(s.debonded_length)) } else { None },
+            })
+        })
+        .collect();
+    let bars: Vec<Value> = input
+        .bars
+        .iter()
+        .enumerate()
+        .map(|(i, b)| {
+            json!({
+                "index": i + 1,
+                "count": b.count,
+                "size": b.size.unwrap_or("non-standard"),
+                "diameter": show(b.diameter),
+                "area": show(b.area),
+                "total_area": show(b.total_area()),
+                "fy": show(b.fy),
+                "depth": show(b.depth),
+            })
+        })
+        .collect();
+    let locations: Vec<Value> = m.locations.iter().map(|l| location_view(l, sys)).collect();
+    json!({
+        "id": m.id,
+        "description": input.description,
+        "kind": input.kind,
+        "pass": m.pass,
+        "governing": m.governing,
+        "section": m.section,
+        "section_shown": {
+            "height": format!("{} {}", show(m.section.height), u.length),
+            "width": format!("{} {}", show(m.section.geometry.x_max - m.section.geometry.x_min), u.length),
+        },
+        "input_rows": rows,
+        "strands": strands,
+        "bars": bars,
+        "steps": steps,
+        "by_id": by,
+        "locations": locations,
+        "defaults": input.defaults,
+        "input": input,
+    })
+}
+
+fn shape_dims(s: &crate::section::shapes::Shape) -> Vec<(&'static str, f64)> {
+    use crate::section::shapes::Shape::*;
+    match *s {
+        Rectangle { width, height } => vec![("Width", width), ("Height", height)],
+        Tee { flange_width, flange_thickness, web_width, height } => vec![
+            ("Flange width", flange_width),
+            ("Flange thickness", flange_thickness),
+            ("Web width", web_width),
+            ("Height", height),
+        ],
+        InvertedTee { web_width, height, ledge_width, ledge_height, .. } => vec![
+            ("Stem width", web_width),
+            ("Height", height),
+            ("Ledge projection", ledge_width),
+            ("Ledge height", ledge_height),
+        ],
+        DoubleTee { flange_width, flange_thickness, height, stem_spacing, stem_width_top, stem_width_bottom } => vec![
+            ("Flange width", flange_width),
+            ("Flange thickness", flange_thickness),
+            ("Height", height),
+            ("Stem spacing", stem_spacing),
+            ("Stem width, top", stem_width_top),
+            ("Stem width, bottom", stem_width_bottom),
+        ],
+        IGirder {
+            height,
+            top_flange_width,
+            top_flange_thickness,
+            top_taper,
+            web_width,
+            bottom_flange_width,
+            bottom_flange_thickness,
+            bottom_taper,
+        } => vec![
+            ("Height", height),
+            ("Top flange width", top_flange_width),
+            ("Top flange thickness", top_flange_thickness),
+            ("Top taper", top_taper),
+            ("Web width", web_width),
+            ("Bottom flange width", bottom_flange_width),
+            ("Bottom flange thickness", bottom_flange_thickness),
+            ("Bottom taper", bottom_taper),
+        ],
+        HollowCore { width, height, void_count, void_diameter, void_center_height } => vec![
+            ("Width", width),
+            ("Height", height),
+            ("Voids", void_count as f64),
+            ("Void diameter", void_diameter),
+            ("Void centre height", void_center_height),
+        ],
+        Polygon { .. } => vec![],
+    }
+}
+
+/// Options of the render that enter the payload.
+pub struct Provenance<'a> {
+    /// "builtin", or the SHA-256 of a template folder.
+    pub templates: &'a str,
+}
+
+/// Builds the payload.
+pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Value {
+    let sys = pkg.units;
+    let u = sys.names();
+    let meta = &pkg.meta;
+    // defaults, with the members that took them
+    let mut defaults: Vec<(String, Vec<String>)> = Vec::new();
+    for m in &pkg.members {
+        for d in &m.defaults {
+            match defaults.iter_mut().find(|(t, _)| *t == d.text) {
+                Some((_, ids)) => ids.push(m.id.clone()),
+                None => defaults.push((d.text.clone(), vec![m.id.clone()])),
+            }
+        }
+    }
+    let all = pkg.members.len();
+    let defaults: Vec<Value> = defaults
+        .into_iter()
+        .map(|(t, ids)| json!({"text": t, "members": if ids.len() == all { "all members".to_string() } else { ids.join(", ") }}))
+        .collect();
+    let summary: Vec<Value> = a
+        .members
+        .iter()
+        .flat_map(|m| {
+            m.locations.iter().enumerate().map(move |(i, l)| {
+                json!({
+                    "member": m.id,
+                    "location": l.name,
+                    "x": l.x.map(show).unwrap_or_else(|| "—".into()),
+                    "phi_mn": show(l.phi_mn),
+                    "mu": show(l.mu),
+                    "ratio": show(l.ratio),
+                    "control": l.control,
+                    "phi": show(l.phi),
+                    "min": if l.min_reinforcement.ok { "met" } else if l.min_reinforcement.waiver_flexure { "waived (see sheet)" } else { "not met" },
+                    "pass": l.pass,
+                    "governing": i == m.governing,
+                })
+            })
+        })
+        .collect();
+    let members: Vec<Value> = a.members.iter().zip(&pkg.members).map(|(r, m)| member_view(r, m, sys)).collect();
+    let draft = meta.is_draft();
+    let signoffs: Vec<Value> = meta
+        .signoffs
+        .iter()
+        .map(|s| json!({"role": s.role.name(), "name": s.name, "license": s.license, "firm": s.firm, "date": s.date.map(|d| d.to_string())}))
+        .collect();
+    let name = std::path::Path::new(&src.name)
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| src.name.clone());
+    json!({
+        "format": 1,
+        "program": {"name": "strainsheet", "version": env!("CARGO_PKG_VERSION")},
+        "templates": prov.templates,
+        "units": {
+            "system": sys.label(),
+            "length": u.length, "area": Unit::Area.name(sys), "stress": u.stress, "force": u.force, "moment": u.moment,
+            "inertia": Unit::Inertia.name(sys), "modulus": Unit::Modulus.name(sys),
+            "input_coherent": match sys { System::Us => "in, in2, ksi, kip, kip-in", System::Si => "mm, mm2, MPa, N, N-mm" },
+        },
+        "input": {
+            "name": name,
+            "sha256": crate::seal::sha256_hex(src.text.as_bytes()),
+            "lines": src.text.lines().count(),
+        },
+        "package": {
+            "title": meta.title,
+            "project": meta.project,
+            "project_number": meta.project_number,
+            "client": meta.client,
+            "subject": meta.subject,
+            "revision": meta.revision,
+            "date": meta.date.to_string(),
+            "basis": meta.basis,
+            "paper": meta.paper,
+            "notes": meta.notes,
+            "revisions": meta.revisions.iter().map(|r| json!({"rev": r.rev, "date": r.date.to_string(), "description": r.description})).collect::<Vec<_>>(),
+            "signoffs": signoffs,
+            "draft": draft,
+            "pass": a.pass(),
+        },
+        "defaults": defaults,
+        "warnings": pkg.warnings,
+        "summary": summary,
+        "members": members,
+    })
+}

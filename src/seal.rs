@@ -1,0 +1,75 @@
+//! Canonical payload bytes and the content hash.
+//!
+//! The payload is JSON written canonically: objects with their keys in byte order of
+//! their UTF-8 text, no insignificant whitespace, strings as serde_json writes them
+//! (UTF-8, minimal escapes), numbers as serde_json writes them (integers as integers,
+//! floats in the shortest form that reads back to the same value, non-finite numbers as
+//! null). The content hash is the SHA-256 of exactly those bytes, in lowercase hex.
+
+use serde_json::Value;
+use sha2::{Digest, Sha256};
+
+/// Writes a JSON value canonically.
+pub fn canonical(v: &Value) -> Vec<u8> {
+    let mut out = Vec::with_capacity(1 << 16);
+    write(v, &mut out);
+    out
+}
+
+fn write(v: &Value, out: &mut Vec<u8>) {
+    match v {
+        Value::Object(map) => {
+            let mut keys: Vec<&String> = map.keys().collect();
+            keys.sort();
+            out.push(b'{');
+            for (i, k) in keys.into_iter().enumerate() {
+                if i > 0 {
+                    out.push(b',');
+                }
+                out.extend_from_slice(serde_json::to_string(k).unwrap_or_default().as_bytes());
+                out.push(b':');
+                write(&map[k], out);
+            }
+            out.push(b'}');
+        }
+        Value::Array(xs) => {
+            out.push(b'[');
+            for (i, x) in xs.iter().enumerate() {
+                if i > 0 {
+                    out.push(b',');
+                }
+                write(x, out);
+            }
+            out.push(b']');
+        }
+        other => out.extend_from_slice(other.to_string().as_bytes()),
+    }
+}
+
+/// SHA-256 of bytes, lowercase hex.
+pub fn sha256_hex(bytes: &[u8]) -> String {
+    hex::encode(Sha256::digest(bytes))
+}
+
+/// The sidecar line `sha256sum -c` reads: `<hex>  <file name>\n`.
+pub fn sidecar(pdf: &[u8], file_name: &str) -> String {
+    format!("{}  {}\n", sha256_hex(pdf), file_name)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use serde_json::json;
+
+    #[test]
+    fn canonical_sorts_keys_and_drops_space() {
+        let v = json!({"b": 1, "a": [1.5, "x", null], "c": {"z": true, "y": 0.1}});
+        assert_eq!(String::from_utf8(canonical(&v)).unwrap(), r#"{"a":[1.5,"x",null],"b":1,"c":{"y":0.1,"z":true}}"#);
+    }
+
+    // FIPS 180-2 test vector: SHA-256("abc")
+    #[test]
+    fn sha256_of_abc() {
+        assert_eq!(sha256_hex(b"abc"), "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
+    }
+}
