@@ -10,6 +10,7 @@
 //! ```
 
 pub mod analysis;
+pub mod diff;
 pub mod error;
 pub mod input;
 pub mod material;
@@ -18,8 +19,10 @@ pub mod present;
 pub mod report;
 pub mod seal;
 pub mod section;
+pub mod sign;
 pub mod starter;
 pub mod trace;
 pub mod units;
+pub mod verify;
 
 pub use error::{Error, Result};

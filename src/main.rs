@@ -4,7 +4,7 @@
 use clap::{Parser, Subcommand, ValueEnum};
 use std::path::PathBuf;
 use std::process::ExitCode;
-use strainsheet::{Error, analysis, input, output, present, report, seal, starter};
+use strainsheet::{Error, analysis, diff, input, output, present, report, seal, sign, starter, verify};
 
 #[derive(Parser)]
 #[command(
@@ -64,6 +64,55 @@ enum Cmd {
         #[arg(long, value_name = "DIR")]
         templates: Option<PathBuf>,
     },
+    /// Prove a package unchanged: hash, re-analysis, byte-identical re-render, sidecar
+    /// and (with --pubkey) the file signature. Exit 0 intact, 1 changed, 2 not a
+    /// package or unreadable, 3 made by a different version.
+    Verify {
+        file: PathBuf,
+        /// The template folder the package was made with (if not the built-in one).
+        #[arg(long, value_name = "DIR")]
+        templates: Option<PathBuf>,
+        /// Also check FILE.sig against this public key.
+        #[arg(long, value_name = "KEY.pub")]
+        pubkey: Option<PathBuf>,
+    },
+    /// Write an Ed25519 key pair for signing packages: KEY (private, mode 0600) and
+    /// KEY.pub. A file signature proves who issued a file; it is not a professional seal
+    /// under a licensing board's digital-signature rules.
+    Keygen {
+        /// Private key file to write (the public key goes to KEY.pub).
+        #[arg(short, long, value_name = "KEY")]
+        output: PathBuf,
+        /// The signer's name, as it should appear in signatures.
+        #[arg(long)]
+        name: String,
+        /// The signer's license number.
+        #[arg(long)]
+        license: String,
+    },
+    /// Sign a package file: writes FILE.sig (signer, license, date, SHA-256, signature).
+    /// It complements, never replaces, the sign-off block inside the package, and is not
+    /// a professional seal under a licensing board's digital-signature rules.
+    Sign {
+        file: PathBuf,
+        /// The private key written by `keygen`.
+        #[arg(long, value_name = "KEY")]
+        key: PathBuf,
+        /// Date to record (default: today, UTC).
+        #[arg(long)]
+        date: Option<String>,
+        /// Replace an existing FILE.sig.
+        #[arg(long)]
+        overwrite: bool,
+    },
+    /// Compare two packages: inputs changed, members added or removed, key results.
+    Diff {
+        old: PathBuf,
+        new: PathBuf,
+        /// Print JSON instead of the table.
+        #[arg(long)]
+        json: bool,
+    },
     /// Print every recorded step of the computation, for review.
     Trace {
         file: PathBuf,
@@ -116,6 +165,54 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             }
             eprintln!("wrote {} ({} sheets, content SHA-256 {})", out.display(), r.pages, r.hash);
             Ok(if a.pass() { ExitCode::SUCCESS } else { ExitCode::from(1) })
+        }
+        Cmd::Verify { file, templates, pubkey } => {
+            let r =
+                verify::verify(&file, &verify::Options { templates: templates.as_deref(), pubkey: pubkey.as_deref() })?;
+            println!("verify {}", file.display());
+            for c in &r.checks {
+                let tag = match c.ok {
+                    Some(true) => "ok  ",
+                    Some(false) => "FAIL",
+                    None => "--  ",
+                };
+                println!("  [{tag}] {}: {}", c.name, c.detail);
+            }
+            let code = r.exit_code();
+            println!(
+                "{}",
+                match code {
+                    0 => "intact: the package is exactly what was issued".to_string(),
+                    1 => "CHANGED: the package is not what was issued (see the failed checks)".to_string(),
+                    _ => format!("made by version {}; checks 1 and 2 were run", r.other_version.unwrap_or_default()),
+                }
+            );
+            Ok(ExitCode::from(code))
+        }
+        Cmd::Keygen { output, name, license } => {
+            let public = sign::keygen(&output, &name, &license)?;
+            eprintln!(
+                "wrote {} (private, keep it secret) and {} (public, share it)",
+                output.display(),
+                public.display()
+            );
+            Ok(ExitCode::SUCCESS)
+        }
+        Cmd::Sign { file, key, date, overwrite } => {
+            let out = sign::sign(&file, &key, date.as_deref(), overwrite)?;
+            eprintln!("wrote {}", out.display());
+            Ok(ExitCode::SUCCESS)
+        }
+        Cmd::Diff { old, new, json } => {
+            let a = verify::open(&old)?;
+            let b = verify::open(&new)?;
+            let d = diff::diff(&a.payload_json, &b.payload_json);
+            if json {
+                println!("{}", serde_json::to_string_pretty(&d).map_err(|e| Error::Usage(e.to_string()))?);
+            } else {
+                print!("{}", diff::table(&d));
+            }
+            Ok(ExitCode::SUCCESS)
         }
         Cmd::Trace { file, member, format } => {
             let (_, pkg) = input::load(&file)?;

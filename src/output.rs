@@ -49,19 +49,23 @@ fn stage(target: &Path, bytes: &[u8]) -> Result<Temp> {
         .map_err(|e| Error::io(&dir, format!("cannot create a temporary file here: {e}")))?;
     pending().push(file.path().to_path_buf());
     file.write_all(bytes).and_then(|_| file.as_file().sync_all()).map_err(|e| Error::io(target, e))?;
+    // a temporary file is private (0600); the output is an ordinary file
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::PermissionsExt;
+        let _ = file.as_file().set_permissions(std::fs::Permissions::from_mode(0o644));
+    }
     Ok(Temp { file, target: target.to_path_buf() })
 }
 
 /// Writes several files as one: all are staged first; then each is moved into place.
 /// Without `overwrite`, an existing target is an error and nothing is written.
 pub fn write_all(files: &[(PathBuf, Vec<u8>)], overwrite: bool) -> Result<()> {
-    if !overwrite {
-        if let Some((p, _)) = files.iter().find(|(p, _)| p.exists()) {
-            return Err(Error::Io {
-                path: p.display().to_string(),
-                message: "already exists; it is left as it is (use --overwrite to replace it)".into(),
-            });
-        }
+    if !overwrite && let Some((p, _)) = files.iter().find(|(p, _)| p.exists()) {
+        return Err(Error::Io {
+            path: p.display().to_string(),
+            message: "already exists; it is left as it is (use --overwrite to replace it)".into(),
+        });
     }
     let mut staged = Vec::new();
     for (p, bytes) in files {

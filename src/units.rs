@@ -61,7 +61,7 @@ struct UnitDef {
 }
 
 const IN_MM: f64 = 25.4;
-const KIP_N: f64 = 4448.221_615_260_5;
+const KIP_N: f64 = 4_448.221_615_260_5;
 const KSI_MPA: f64 = 6.894_757_293_168_361;
 const PCF_KGM3: f64 = 16.018_463_373_960_14;
 

@@ -88,6 +88,7 @@ pub(super) fn transfer(
         doubled: s.debonded_length > 0.0,
         fse_here,
         fpx: None,
+        ratio: None,
         phi: None,
         state,
     };
@@ -146,10 +147,10 @@ pub(super) fn development(
         dev.state = "fully developed";
         return None;
     }
-    let (cap, phi) = if xb <= ltr {
-        (fse_full * xb / ltr.max(f64::MIN_POSITIVE), 0.75)
+    let cap = if xb <= ltr {
+        fse_full * xb / ltr.max(f64::MIN_POSITIVE)
     } else {
-        (fse_full + (xb - ltr) / (ld - ltr) * (fps_d - fse_full), 0.75 + 0.15 * (xb - ltr) / (ld - ltr))
+        fse_full + (xb - ltr) / (ld - ltr) * (fps_d - fse_full)
     };
     dev.fpx = Some(cap);
     dev.state = if xb <= ltr { "within the transfer length" } else { "between the transfer and development lengths" };
@@ -179,32 +180,59 @@ pub(super) fn development(
                 .note("between the transfer and development lengths: linear")
         }
     });
-    // only strand on the tension side governs phi (21.2.3 concerns the tension steel)
-    let tension_side = at.d > c;
-    let phi = if tension_side { Some(phi) } else { None };
-    dev.phi = phi;
-    if let Some(ph) = phi {
+    let ratio = if xb <= ltr { 0.0 } else { (xb - ltr) / (ld - ltr) };
+    dev.ratio = Some(ratio);
+    let _ = c;
+    Some((cap, Some(ratio)))
+}
+
+/// phi of ACI 318-19 21.2.3 for strand not fully developed at the section: 0.75 up to
+/// the transfer length, then linear to phi_p (the value of Table 21.2.2) at the
+/// development length, measured from where the bond begins. Only strand below the
+/// neutral axis (in tension) governs.
+pub(super) fn phi_development(
+    p: &Prepared,
+    li: usize,
+    at: &mut [StrandAt],
+    c: f64,
+    phi_p: f64,
+    tr: &mut Trace,
+) -> Option<f64> {
+    let mut least: Option<f64> = None;
+    for (i, a) in at.iter_mut().enumerate() {
+        let k = i + 1;
+        if !a.active || a.d <= c {
+            continue;
+        }
+        let Some(dev) = a.dev.as_mut() else { continue };
+        let Some(ratio) = dev.ratio else { continue };
+        let phi = (0.75 + (phi_p - 0.75) * ratio).min(phi_p.max(0.75));
+        dev.phi = Some(phi);
+        let (xb, ltr, ld) = (dev.x_bond, dev.transfer_length, dev.development_length);
         tr.rec(|| {
             let st = Step::new(
-                "development",
+                "checks",
                 tag(li, &format!("dev.phi.{k}")),
                 format!("phi for strand not fully developed, layer {k}"),
                 si("phi", "\"dev\"", "phi_dev", k),
             )
-            .clause("ACI 318-19 21.2.3");
-            if xb <= ltr {
-                st.result(ph, Unit::Ratio).note("from the end of bonding to the end of the transfer length")
+            .clause("ACI 318-19 21.2.3, Table 21.2.3");
+            if ratio == 0.0 {
+                st.result(phi, Unit::Ratio).note("from where the bond begins to the end of the transfer length")
             } else {
-                st.formula(add(vec![n(0.75), mul(vec![n(0.15), div(sub(v(0), v(1)), sub(v(2), v(1)))])]))
+                st.formula(add(vec![n(0.75), mul(vec![sub(v(0), n(0.75)), div(sub(v(1), v(2)), sub(v(3), v(2)))])]))
+                    .input(sy("phi_p", "phi_p"), phi_p, Unit::Ratio)
                     .input(si("x", "b", "xb", k), xb, Unit::Length)
                     .input(si("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
                     .input(si("ell", "d", "ld", k), ld, Unit::Length)
-                    .result(ph, Unit::Ratio)
-                    .note("linear from 0.75 at the transfer length to 0.90 at the development length")
+                    .result(phi, Unit::Ratio)
+                    .note("linear from 0.75 at the transfer length to phi_p (Table 21.2.2) at the development length")
             }
         });
+        least = Some(least.map_or(phi, |q| q.min(phi)));
     }
-    Some((cap, phi))
+    let _ = p;
+    least
 }
 
 pub(super) struct Control {
@@ -537,43 +565,44 @@ pub(super) fn approximate(
         return na("the stress block would be deeper than the section".into());
     };
     let mut flanged = false;
-    if let Some(bw) = bw {
-        if a > hf && bw < b {
-            flanged = true;
-            let apf = 0.85 * fc * (b - bw) * hf / fps;
-            let apw = (aps - apf).max(0.0);
-            let (fps2, rho_pw, rho_w) = fps_of(bw, apw);
-            tr.rec(|| {
-                Step::new(
-                    "approximate",
-                    tag(li, "approx.Apf"),
-                    "Strand area balancing the flange overhangs",
-                    sy("A_\"pf\"", "Apf"),
-                )
-                .formula(div(mul(vec![n(0.85), v(0), sub(v(1), v(2)), v(3)]), v(4)))
-                .input(sy("f'_c", "f'c"), fc, Unit::Stress)
-                .input(sy("b", "b"), b, Unit::Length)
-                .input(sy("b_w", "bw"), bw, Unit::Length)
-                .input(sy("h_f", "hf"), hf, Unit::Length)
-                .input(sy("f_\"ps\"", "fps"), fps, Unit::Stress)
-                .result(apf, Unit::Area)
-                .note("the block is deeper than the flange: overhang-plus-web procedure (PCI Design Handbook)")
-            });
-            fps = fps2;
-            step_fps(
-                tr,
-                "approx.fps_web",
-                "Approximate strand stress, web portion (ρp = Apw / (bw dp))",
-                bw,
-                apw,
-                fps,
-                rho_pw,
-                rho_w,
-            );
-            match block_for(t_total(fps)) {
-                Some(a2) => a = a2,
-                None => return na("the stress block would be deeper than the section".into()),
-            }
+    if let Some(bw) = bw
+        && a > hf
+        && bw < b
+    {
+        flanged = true;
+        let apf = 0.85 * fc * (b - bw) * hf / fps;
+        let apw = (aps - apf).max(0.0);
+        let (fps2, rho_pw, rho_w) = fps_of(bw, apw);
+        tr.rec(|| {
+            Step::new(
+                "approximate",
+                tag(li, "approx.Apf"),
+                "Strand area balancing the flange overhangs",
+                sy("A_\"pf\"", "Apf"),
+            )
+            .formula(div(mul(vec![n(0.85), v(0), sub(v(1), v(2)), v(3)]), v(4)))
+            .input(sy("f'_c", "f'c"), fc, Unit::Stress)
+            .input(sy("b", "b"), b, Unit::Length)
+            .input(sy("b_w", "bw"), bw, Unit::Length)
+            .input(sy("h_f", "hf"), hf, Unit::Length)
+            .input(sy("f_\"ps\"", "fps"), fps, Unit::Stress)
+            .result(apf, Unit::Area)
+            .note("the block is deeper than the flange: overhang-plus-web procedure (PCI Design Handbook)")
+        });
+        fps = fps2;
+        step_fps(
+            tr,
+            "approx.fps_web",
+            "Approximate strand stress, web portion (ρp = Apw / (bw dp))",
+            bw,
+            apw,
+            fps,
+            rho_pw,
+            rho_w,
+        );
+        match block_for(t_total(fps)) {
+            Some(a2) => a = a2,
+            None => return na("the stress block would be deeper than the section".into()),
         }
     }
     let ab = area_above(a);

@@ -141,6 +141,9 @@ pub struct Development {
     pub doubled: bool,
     pub fse_here: f64,
     pub fpx: Option<f64>,
+    /// Position between the transfer and development lengths (0 within the transfer
+    /// length), for strand not fully developed here.
+    pub ratio: Option<f64>,
     pub phi: Option<f64>,
     pub state: &'static str,
 }
@@ -848,15 +851,11 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
     let fps_full: Vec<f64> =
         model.steel[..m.strands.len()].iter().map(|s| s.stress_at(s.pre + s.eps3(st.c, EPS_CU))).collect();
     let mut caps = no_caps.clone();
-    let mut phi_dev: Option<f64> = None;
     if loc.x.is_some() {
         for (i, s) in m.strands.iter().enumerate() {
             let fse_i = at[i].fse;
             if let Some(d) = checks::development(p, li, i, s, st.c, fse_i, fps_full[i], &mut at[i], &mut tr) {
                 caps[i] = d.0;
-                if let Some(ph) = d.1 {
-                    phi_dev = Some(phi_dev.map_or(ph, |q: f64| q.min(ph)));
-                }
             }
         }
         if caps.iter().any(|c| c.is_finite()) {
@@ -903,16 +902,18 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
         }
         _ => None,
     };
-    if let (Some(BlockMode::Topping), Some(tp)) = (block, &m.topping) {
-        if st.a > tp.thickness && tp.concrete.fc > m.concrete.fc {
-            notes.push("The topping's f'c exceeds the precast concrete's and the block reaches below the topping: the default block (topping f'c throughout) is then not conservative; compare block = \"two_part\".".into());
-        }
+    if let (Some(BlockMode::Topping), Some(tp)) = (block, &m.topping)
+        && st.a > tp.thickness
+        && tp.concrete.fc > m.concrete.fc
+    {
+        notes.push("The topping's f'c exceeds the precast concrete's and the block reaches below the topping: the default block (topping f'c throughout) is then not conservative; compare block = \"two_part\".".into());
     }
 
     // ---- Mn, phi, checks ---------------------------------------------------------
     let mn = strength.mn_shown;
     let mu = loc.mu * cv.km;
     let ctl = checks::control(p, li, &model, &st, &mut tr);
+    let phi_dev = checks::phi_development(p, li, &mut at, st.c, ctl.phi, &mut tr);
     let phi = match phi_dev {
         Some(pd) if pd < ctl.phi => {
             let phi_f = ctl.phi;

@@ -318,14 +318,14 @@ pub fn package(cx: &mut Ctx, f: &raw::File) -> Option<Package> {
     for (i, m) in f.member.iter().enumerate() {
         cx.enter(Seg::Key("member"));
         cx.enter(Seg::Idx(i));
-        if let Some(id) = &m.id {
-            if let Some(first) = seen.insert(id.clone(), i) {
-                cx.problem(
-                    "id",
-                    format!("id = {id:?} is used twice (also by member [{}])", first + 1),
-                    Some("a unique id for every member".to_string()),
-                );
-            }
+        if let Some(id) = &m.id
+            && let Some(first) = seen.insert(id.clone(), i)
+        {
+            cx.problem(
+                "id",
+                format!("id = {id:?} is used twice (also by member [{}])", first + 1),
+                Some("a unique id for every member".to_string()),
+            );
         }
         if let Some(member) = member(cx, m) {
             members.push(member);
@@ -393,28 +393,28 @@ fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
         let d = cx.required("date", d, "the date of the revision");
         let description = cx.text("description", &r.description, limits::SHORT_TEXT).unwrap_or_default();
         if let (Some(rev), Some(d)) = (rev, d) {
-            if let Some(prev) = revisions.last().map(|x: &Revision| x.date) {
-                if d < prev {
-                    cx.problem(
-                        "date",
-                        format!("date = {d} is earlier than the revision before it ({prev})"),
-                        Some("revisions listed oldest first".to_string()),
-                    );
-                }
+            if let Some(prev) = revisions.last().map(|x: &Revision| x.date)
+                && d < prev
+            {
+                cx.problem(
+                    "date",
+                    format!("date = {d} is earlier than the revision before it ({prev})"),
+                    Some("revisions listed oldest first".to_string()),
+                );
             }
             revisions.push(Revision { rev, date: d, description });
         }
         cx.leave();
         cx.leave();
     }
-    if let (Some(last), Some(revision)) = (revisions.last(), &revision) {
-        if &last.rev != revision {
-            cx.problem(
-                "revision",
-                format!("revision = {revision:?}, but the revision history ends with {:?}", last.rev),
-                Some("the current revision as the last entry of [[package.revisions]]".to_string()),
-            );
-        }
+    if let (Some(last), Some(revision)) = (revisions.last(), &revision)
+        && &last.rev != revision
+    {
+        cx.problem(
+            "revision",
+            format!("revision = {revision:?}, but the revision history ends with {:?}", last.rev),
+            Some("the current revision as the last entry of [[package.revisions]]".to_string()),
+        );
     }
 
     let mut signoffs: Vec<Signoff> = Vec::new();
@@ -470,16 +470,16 @@ fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
             );
         }
     }
-    if let (Some(pi), Some(ci)) = (find(Role::Prepared), find(Role::Checked)) {
-        if signoffs[pi].name.trim().eq_ignore_ascii_case(signoffs[ci].name.trim()) {
-            let mut path = at_signoff(ci);
-            path.push(Seg::Key("name"));
-            cx.problems.push(Problem {
-                path,
-                message: format!("the checker ({:?}) is the preparer", signoffs[ci].name),
-                allowed: Some("a checker who is not the person who prepared the package".to_string()),
-            });
-        }
+    if let (Some(pi), Some(ci)) = (find(Role::Prepared), find(Role::Checked))
+        && signoffs[pi].name.trim().eq_ignore_ascii_case(signoffs[ci].name.trim())
+    {
+        let mut path = at_signoff(ci);
+        path.push(Seg::Key("name"));
+        cx.problems.push(Problem {
+            path,
+            message: format!("the checker ({:?}) is the preparer", signoffs[ci].name),
+            allowed: Some("a checker who is not the person who prepared the package".to_string()),
+        });
     }
     // dates in order: prepared <= checked <= approved, and no later role dated before an
     // earlier one is
@@ -523,17 +523,18 @@ fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
     })
 }
 
-fn concrete_of(
-    cx: &mut Ctx,
-    fc: &Option<Q>,
-    ec: &Option<Q>,
-    density: &Option<Q>,
+/// The concrete keys of a table (`[member.concrete]` or `[member.topping]`).
+struct ConcreteKeys<'a> {
+    fc: &'a Option<Q>,
+    ec: &'a Option<Q>,
+    density: &'a Option<Q>,
     lambda: Option<f64>,
-    fr: &Option<Q>,
-    curve: &Option<String>,
-    defaults: &mut Vec<Default>,
-    prefix: &str,
-) -> Option<Concrete> {
+    fr: &'a Option<Q>,
+    curve: &'a Option<String>,
+}
+
+fn concrete_of(cx: &mut Ctx, k: ConcreteKeys, defaults: &mut Vec<Default>, prefix: &str) -> Option<Concrete> {
+    let ConcreteKeys { fc, ec, density, lambda, fr, curve } = k;
     let r = ranges(cx.sys);
     let names = cx.sys.names();
     let fc = cx.ranged("fc", fc, Dim::Stress, r.fc.0, r.fc.1, false);
@@ -1029,20 +1030,20 @@ fn strand_layer(
     let (diameter, area, size) = match (diameter, area) {
         (Some(d), a) => match catalog::strand_by_diameter(d, grade, sys) {
             Some(std) => {
-                if let Some(a) = a {
-                    if (a - std.area).abs() > 0.02 * std.area {
-                        cx.warn(
-                            "area",
-                            format!(
-                                "area {} {} differs from the standard {} {} of {} strand",
-                                num(a),
-                                names.area,
-                                num(std.area),
-                                names.area,
-                                std.name
-                            ),
-                        );
-                    }
+                if let Some(a) = a
+                    && (a - std.area).abs() > 0.02 * std.area
+                {
+                    cx.warn(
+                        "area",
+                        format!(
+                            "area {} {} differs from the standard {} {} of {} strand",
+                            num(a),
+                            names.area,
+                            num(std.area),
+                            names.area,
+                            std.name
+                        ),
+                    );
                 }
                 (std.diameter, a.unwrap_or(std.area), Some(std.name))
             }
@@ -1272,10 +1273,10 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     let mut defaults = Vec::new();
     let id = cx.text("id", &m.id, 60);
     let id = cx.required("id", id, "a short unique name for the member, e.g. \"DT-1\"");
-    if let Some(id) = &id {
-        if id.trim().is_empty() {
-            cx.problem("id", "id is empty", Some("a short unique name for the member".to_string()));
-        }
+    if let Some(id) = &id
+        && id.trim().is_empty()
+    {
+        cx.problem("id", "id is empty", Some("a short unique name for the member".to_string()));
     }
     let description = cx.text("description", &m.description, limits::TEXT).unwrap_or_default();
     let length = match &m.length {
@@ -1286,7 +1287,19 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     let concrete = match &m.concrete {
         Some(c) => {
             cx.enter(Seg::Key("concrete"));
-            let v = concrete_of(cx, &c.fc, &c.ec, &c.density, c.lambda, &c.fr, &c.curve, &mut defaults, "concrete.");
+            let v = concrete_of(
+                cx,
+                ConcreteKeys {
+                    fc: &c.fc,
+                    ec: &c.ec,
+                    density: &c.density,
+                    lambda: c.lambda,
+                    fr: &c.fr,
+                    curve: &c.curve,
+                },
+                &mut defaults,
+                "concrete.",
+            );
             cx.leave();
             v
         }
@@ -1384,7 +1397,19 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
                     None
                 }
             };
-            let c = concrete_of(cx, &t.fc, &t.ec, &t.density, t.lambda, &None, &t.curve, &mut defaults, "topping.");
+            let c = concrete_of(
+                cx,
+                ConcreteKeys {
+                    fc: &t.fc,
+                    ec: &t.ec,
+                    density: &t.density,
+                    lambda: t.lambda,
+                    fr: &None,
+                    curve: &t.curve,
+                },
+                &mut defaults,
+                "topping.",
+            );
             cx.leave();
             match (thickness, width, block, c) {
                 (Some(thickness), Some(width), Some(block), Some(concrete)) => Some(Topping {

@@ -66,10 +66,10 @@ impl SheetWorld {
         if let Some(id) = d.span.id() {
             let name = id.get().vpath().get_without_slash().to_string();
             at = name.clone();
-            if let (Ok(src), Some(range)) = (self.source(id), self.range(d.span)) {
-                if let Some((l, c)) = src.lines().byte_to_line_column(range.start) {
-                    at = format!("{name}:{}:{}", l + 1, c + 1);
-                }
+            if let (Ok(src), Some(range)) = (self.source(id), self.range(d.span))
+                && let Some((l, c)) = src.lines().byte_to_line_column(range.start)
+            {
+                at = format!("{name}:{}:{}", l + 1, c + 1);
             }
         }
         let mut s = if at.is_empty() { d.message.to_string() } else { format!("{at}: {}", d.message) };

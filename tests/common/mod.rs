@@ -53,3 +53,41 @@ pub fn parse_err(text: &str) -> String {
 pub fn example(name: &str) -> std::path::PathBuf {
     std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples").join(name)
 }
+
+/// Renders a package (library path) and returns the PDF bytes.
+pub fn render(pkg: &Package, src: &Source) -> strainsheet::report::Rendered {
+    let a = strainsheet::analysis::analyze(pkg, true).expect("analysis");
+    strainsheet::report::render(pkg, src, &a, &strainsheet::report::Templates::builtin()).expect("render")
+}
+
+/// Loads an example and renders it.
+pub fn render_example(name: &str) -> (Package, strainsheet::report::Rendered) {
+    let (src, pkg) = input::load(&example(name)).expect("load");
+    let r = render(&pkg, &src);
+    (pkg, r)
+}
+
+/// The text of a PDF (or of one page), by poppler's pdftotext.
+pub fn pdftotext(pdf: &[u8], page: Option<usize>) -> String {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("p.pdf");
+    std::fs::write(&path, pdf).unwrap();
+    let mut cmd = std::process::Command::new("pdftotext");
+    if let Some(p) = page {
+        cmd.args(["-f", &p.to_string(), "-l", &p.to_string()]);
+    }
+    cmd.arg("-layout").arg(&path).arg("-");
+    let out = cmd.output().expect("pdftotext (poppler-utils) is needed by this test: apt-get install poppler-utils");
+    assert!(out.status.success(), "pdftotext failed: {}", String::from_utf8_lossy(&out.stderr));
+    String::from_utf8_lossy(&out.stdout).into_owned()
+}
+
+/// Page count of a PDF.
+pub fn pages(pdf: &[u8]) -> usize {
+    lopdf::Document::load_mem(pdf).expect("a readable PDF").get_pages().len()
+}
+
+/// The strainsheet binary.
+pub fn bin() -> std::process::Command {
+    std::process::Command::new(env!("CARGO_BIN_EXE_strainsheet"))
+}

@@ -1,0 +1,240 @@
+//! The calculation package: determinism, the title block on every sheet, DRAFT logic,
+//! the displayed values against the trace, hostile text, overwrite refusal, and the PDF
+//! structure read back with a PDF library.
+
+mod common;
+use common::*;
+use strainsheet::input::{self, Source};
+
+const EXAMPLES: [&str; 3] = ["parking-double-tee.toml", "inverted-tee-girder.toml", "hollow-core-plank.toml"];
+
+#[test]
+fn same_input_same_bytes() {
+    for ex in EXAMPLES {
+        let (_, a) = render_example(ex);
+        let (_, b) = render_example(ex);
+        assert!(a.pdf == b.pdf, "{ex}: two renders differ");
+        assert_eq!(a.hash, b.hash);
+    }
+}
+
+#[test]
+fn every_sheet_has_title_block_hash_and_draft_mark() {
+    for ex in EXAMPLES {
+        let (pkg, r) = render_example(ex);
+        let n = pages(&r.pdf);
+        assert_eq!(n, r.pages);
+        let draft = pkg.meta.is_draft();
+        for p in 1..=n {
+            let t = pdftotext(&r.pdf, Some(p));
+            assert!(t.contains(&r.hash[..16]), "{ex} sheet {p}: no content hash in the title block");
+            assert!(t.contains(&format!("{p} of {n}")), "{ex} sheet {p}: no 'sheet {p} of {n}'");
+            assert!(t.contains(&pkg.meta.project), "{ex} sheet {p}: no project name");
+            assert_eq!(t.contains("DRAFT"), draft, "{ex} sheet {p}: DRAFT mark should be {draft}");
+        }
+        // the full hash on the cover
+        assert!(pdftotext(&r.pdf, Some(1)).contains(&r.hash), "{ex}: the cover lacks the full hash");
+    }
+}
+
+#[test]
+fn draft_until_every_signoff_is_dated() {
+    // the girder example has every sign-off dated: issued; undating one makes it a draft
+    let (src, pkg) = input::load(&example("inverted-tee-girder.toml")).unwrap();
+    assert!(!pkg.meta.is_draft());
+    let text = src.text.replace("date = 2026-11-24\n\n[[member]]", "\n[[member]]");
+    assert_ne!(text, src.text);
+    let src2 = Source { name: src.name.clone(), text };
+    let pkg2 = input::parse(&src2).unwrap();
+    assert!(pkg2.meta.is_draft());
+    let r = render(&pkg2, &src2);
+    assert!(pdftotext(&r.pdf, Some(1)).contains("DRAFT"));
+    assert!(pdftotext(&r.pdf, Some(pages(&r.pdf))).contains("DRAFT"));
+}
+
+fn squash(s: &str) -> String {
+    s.split_whitespace().collect::<Vec<_>>().join(" ")
+}
+
+#[test]
+fn displayed_values_equal_the_trace() {
+    for ex in EXAMPLES {
+        let (src, pkg) = input::load(&example(ex)).unwrap();
+        let a = strainsheet::analysis::analyze(&pkg, true).unwrap();
+        let r = strainsheet::report::render(&pkg, &src, &a, &strainsheet::report::Templates::builtin()).unwrap();
+        let n = pages(&r.pdf);
+        let sheets: Vec<String> = (1..=n).map(|p| squash(&pdftotext(&r.pdf, Some(p)))).collect();
+        for m in &a.members {
+            for l in &m.locations {
+                // the sheets of this location: their title block names it as "<id> · <name>"
+                let subject = format!("{} · {}", m.id, l.name);
+                let chunk: String = sheets
+                    .iter()
+                    .filter(|t| t.contains(&subject) && !t.contains("Contents"))
+                    .cloned()
+                    .collect::<Vec<_>>()
+                    .join(" ");
+                assert!(!chunk.is_empty(), "{ex}: no sheets titled {subject}");
+                for st in &l.trace {
+                    if st.value.is_nan() {
+                        continue;
+                    }
+                    let plain = strainsheet::trace::scaled(st.value, st.unit);
+                    // a tiny value prints as mantissa × 10^exponent
+                    let shown = match plain.split_once('e') {
+                        Some((m, e)) => format!("{} × 10{}", m, e).replace('-', "−"),
+                        None => plain.replace('-', "−"),
+                    };
+                    assert!(
+                        chunk.contains(&shown) || chunk.contains(&plain),
+                        "{ex}: {} {}: step {} shows {plain}, not found on its sheets",
+                        m.id,
+                        l.name,
+                        st.id
+                    );
+                }
+                let f = strainsheet::trace::show;
+                for v in [l.phi_mn, l.mu, l.ratio, l.c] {
+                    assert!(chunk.contains(&f(v)), "{ex}: {} {}: {} not on its sheets", m.id, l.name, f(v));
+                }
+            }
+        }
+    }
+}
+
+fn hostile_package() -> (Package, Source) {
+    let text = String::from(
+        r##"format = 1
+[package]
+title = "#read(\"/etc/passwd\") $x^2$ *bold* _it_ <lab> @ref ]] #image(\"/etc/hostname\")"
+project = "#include \"/etc/passwd\""
+project_number = "#json(\"/etc/passwd\")"
+client = "#import \"/etc/passwd\": *"
+revision = "0"
+date = 2026-12-01
+units = "us"
+notes = "Backslash \\ and #{1 + 1} and `raw` and // comment"
+[[package.signoff]]
+role = "prepared"
+name = "#sym.alpha"
+[[package.signoff]]
+role = "checked"
+name = "]; #panic(\"x\")"
+[[member]]
+id = "#read(\"x\")"
+description = "$ 1 + 1 $ and *emphasis*"
+mu = 100.0
+[member.concrete]
+fc = 6.0
+[member.section]
+shape = "rectangle"
+width = 12.0
+height = 24.0
+[[member.strands]]
+depth = 21.0
+count = 4
+diameter = 0.5
+fse = 160.0
+[[member.location]]
+name = "#pagebreak() \\ <x>"
+x = 120.0
+"##,
+    );
+    let src = Source { name: "hostile.toml".into(), text };
+    let pkg = input::parse(&src).unwrap();
+    (pkg, src)
+}
+use strainsheet::input::Package;
+
+#[test]
+fn user_text_prints_literally() {
+    let (pkg, src) = hostile_package();
+    let r = render(&pkg, &src);
+    let text = pdftotext(&r.pdf, None);
+    assert!(!text.contains("root:"), "a file of the machine leaked into the package");
+    for s in [
+        r#"#read("/etc/passwd") $x^2$ *bold* _it_ <lab> @ref ]]"#,
+        r#"#include "/etc/passwd""#,
+        "#sym.alpha",
+        r#"]; #panic("x")"#,
+        "$ 1 + 1 $ and *emphasis*",
+        "#{1 + 1}",
+    ] {
+        assert!(squash(&text).contains(&squash(s)), "not printed literally: {s}");
+    }
+}
+
+#[test]
+fn pdf_structure_reads_back() {
+    for ex in EXAMPLES {
+        let (pkg, r) = render_example(ex);
+        let doc = lopdf::Document::load_mem(&r.pdf).expect("lopdf reads the package");
+        assert_eq!(doc.get_pages().len(), r.pages);
+        let files = strainsheet::verify::attachments(&doc).unwrap();
+        assert_eq!(
+            files.keys().cloned().collect::<Vec<_>>(),
+            vec!["input.toml".to_string(), "payload.json".to_string()]
+        );
+        assert_eq!(files["payload.json"], r.payload);
+        assert_eq!(strainsheet::seal::sha256_hex(&files["payload.json"]), r.hash);
+        assert_eq!(strainsheet::verify::recorded_hash(&doc).as_deref(), Some(r.hash.as_str()));
+        // PDF/A-3b identification in the XMP metadata
+        let s = String::from_utf8_lossy(&r.pdf);
+        assert!(s.contains("pdfaid:part>3<") || s.contains("pdfaid:part=\"3\""), "{ex}: no PDF/A-3 identification");
+        // paper: US Letter for us packages, A4 for si
+        let first = *doc.get_pages().values().next().unwrap();
+        let mb = doc.get_dictionary(first).unwrap().get(b"MediaBox").unwrap().as_array().unwrap().clone();
+        let w = mb[2].as_float().unwrap_or_else(|_| mb[2].as_i64().unwrap() as f32);
+        let expected = if pkg.units == strainsheet::units::System::Us { 612.0 } else { 595.28 };
+        assert!((w - expected).abs() < 1.0, "{ex}: page width {w}");
+    }
+}
+
+#[test]
+fn report_refuses_to_overwrite_and_leaves_the_old_file() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("pkg.pdf");
+    std::fs::write(&out, b"an issued package").unwrap();
+    let st = bin()
+        .args(["report", example("hollow-core-plank.toml").to_str().unwrap(), "-o", out.to_str().unwrap()])
+        .output()
+        .unwrap();
+    assert_eq!(st.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&st.stderr).contains("--overwrite"));
+    assert_eq!(std::fs::read(&out).unwrap(), b"an issued package");
+    let leftovers: Vec<_> = std::fs::read_dir(dir.path()).unwrap().map(|e| e.unwrap().file_name()).collect();
+    assert_eq!(leftovers.len(), 1, "files left behind: {leftovers:?}");
+    // with --overwrite it is replaced, with its sidecar
+    let st = bin()
+        .args([
+            "report",
+            example("hollow-core-plank.toml").to_str().unwrap(),
+            "-o",
+            out.to_str().unwrap(),
+            "--overwrite",
+        ])
+        .output()
+        .unwrap();
+    assert_eq!(st.status.code(), Some(0), "{}", String::from_utf8_lossy(&st.stderr));
+    assert!(std::fs::read(&out).unwrap().starts_with(b"%PDF-"));
+    let side = std::fs::read_to_string(dir.path().join("pkg.pdf.sha256")).unwrap();
+    assert_eq!(side, strainsheet::seal::sidecar(&std::fs::read(&out).unwrap(), "pkg.pdf"));
+}
+
+#[test]
+fn sidecar_reads_with_sha256sum() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("hc.pdf");
+    let st = bin()
+        .args(["report", example("hollow-core-plank.toml").to_str().unwrap(), "-o", out.to_str().unwrap()])
+        .output()
+        .unwrap();
+    assert!(st.status.success());
+    let check = std::process::Command::new("sha256sum")
+        .arg("-c")
+        .arg("hc.pdf.sha256")
+        .current_dir(dir.path())
+        .output()
+        .unwrap();
+    assert!(check.status.success(), "{}", String::from_utf8_lossy(&check.stdout));
+}
