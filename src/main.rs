@@ -32,6 +32,12 @@ enum TraceFormat {
     Csv,
 }
 
+#[derive(Clone, Copy, ValueEnum)]
+enum CurveFormat {
+    Json,
+    Csv,
+}
+
 #[derive(Subcommand)]
 enum Cmd {
     /// Write a commented starter input file.
@@ -113,6 +119,17 @@ enum Cmd {
         #[arg(long)]
         json: bool,
     },
+    /// The moment-curvature response of a member (fibre analysis), as JSON or CSV.
+    Curve {
+        file: PathBuf,
+        #[arg(long)]
+        member: String,
+        /// Check location (default: the member's governing location).
+        #[arg(long)]
+        location: Option<String>,
+        #[arg(long, value_enum, default_value = "json")]
+        format: CurveFormat,
+    },
     /// Print every recorded step of the computation, for review.
     Trace {
         file: PathBuf,
@@ -122,6 +139,19 @@ enum Cmd {
         #[arg(long, value_enum, default_value = "text")]
         format: TraceFormat,
     },
+}
+
+/// Writes to stdout through one buffer (stdout is line-buffered, which is slow for
+/// large outputs); a closed pipe is not an error.
+fn write_stdout(f: impl FnOnce(&mut dyn std::io::Write) -> std::io::Result<()>) -> Result<(), Error> {
+    let stdout = std::io::stdout();
+    let mut w = std::io::BufWriter::with_capacity(1 << 20, stdout.lock());
+    let res = f(&mut w).and_then(|_| std::io::Write::flush(&mut w));
+    match res {
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
+        Err(e) => Err(Error::Io { path: "stdout".into(), message: e.to_string() }),
+        Ok(()) => Ok(()),
+    }
 }
 
 fn run(cli: Cli) -> Result<ExitCode, Error> {
@@ -139,12 +169,18 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             let (_, pkg) = input::load(&file)?;
             let a = analysis::analyze(&pkg, false)?;
             if json {
-                let v = present::check_json(&pkg, &a);
-                println!("{}", serde_json::to_string_pretty(&v).map_err(|e| Error::Usage(e.to_string()))?);
+                write_stdout(|w| {
+                    serde_json::to_writer(&mut *w, &present::check_json(&pkg, &a)).map_err(std::io::Error::other)?;
+                    w.write_all(b"\n")
+                })?;
             } else {
-                print!("{}", present::check_table(&pkg, &a));
+                write_stdout(|w| w.write_all(present::check_table(&pkg, &a).as_bytes()))?;
             }
-            Ok(if a.pass() { ExitCode::SUCCESS } else { ExitCode::from(1) })
+            let code = if a.pass() { ExitCode::SUCCESS } else { ExitCode::from(1) };
+            // the process ends here: leave the large results to the operating system
+            std::mem::forget(a);
+            std::mem::forget(pkg);
+            Ok(code)
         }
         Cmd::Report { file, output, overwrite, templates } => {
             let out = output.unwrap_or_else(|| file.with_extension("pdf"));
@@ -153,7 +189,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 None => report::Templates::builtin(),
             };
             let (src, pkg) = input::load(&file)?;
-            let a = analysis::analyze(&pkg, true)?;
+            let a = analysis::analyze_full(&pkg)?;
             let r = report::render(&pkg, &src, &a, &templates)?;
             let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
             let sidecar = seal::sidecar(&r.pdf, &name);
@@ -211,6 +247,38 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 println!("{}", serde_json::to_string_pretty(&d).map_err(|e| Error::Usage(e.to_string()))?);
             } else {
                 print!("{}", diff::table(&d));
+            }
+            Ok(ExitCode::SUCCESS)
+        }
+        Cmd::Curve { file, member, location, format } => {
+            let (_, pkg) = input::load(&file)?;
+            let Some(mi) = pkg.members.iter().position(|m| m.id == member) else {
+                let ids: Vec<&str> = pkg.members.iter().map(|m| m.id.as_str()).collect();
+                return Err(Error::Usage(format!(
+                    "no member {member:?} in {}; its members are {}",
+                    file.display(),
+                    ids.join(", ")
+                )));
+            };
+            let m = &pkg.members[mi];
+            let r = analysis::analyze_member(m, pkg.units, false)?;
+            let li = match &location {
+                Some(name) => m.locations.iter().position(|l| &l.name == name).ok_or_else(|| {
+                    let names: Vec<&str> = m.locations.iter().map(|l| l.name.as_str()).collect();
+                    Error::Usage(format!(
+                        "member {member} has no location {name:?}; its locations are {}",
+                        names.join(", ")
+                    ))
+                })?,
+                None => r.governing,
+            };
+            let c = analysis::curve::moment_curvature(m, pkg.units, li)?;
+            match format {
+                CurveFormat::Json => {
+                    let v = present::curve_json(&pkg, &c, &r.locations[li]);
+                    println!("{}", serde_json::to_string_pretty(&v).map_err(|e| Error::Usage(e.to_string()))?);
+                }
+                CurveFormat::Csv => print!("{}", present::curve_csv(&c)),
             }
             Ok(ExitCode::SUCCESS)
         }

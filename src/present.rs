@@ -4,75 +4,135 @@
 use crate::analysis::{Analysis, LayerOut, LocationResult, MemberResult};
 use crate::input::Package;
 use crate::trace::{Step, Style, show};
+use serde::Serialize;
 use serde_json::{Value, json};
 
-fn layer_json(l: &LayerOut, strand: bool) -> Value {
-    let mut v = json!({
-        "depth": l.depth,
-        "area": l.area,
-        "eps": l.eps,
-        "stress": l.stress,
-        "force": l.force,
-    });
-    if strand {
-        v["eps1"] = json!(l.eps1);
-        v["eps2"] = json!(l.eps2);
-        v["eps3"] = json!(l.eps3);
-        v["fse"] = json!(l.fse);
-        v["active"] = json!(l.active);
-    } else {
-        v["eps3"] = json!(l.eps3);
+#[derive(Serialize)]
+struct LayerJson {
+    depth: f64,
+    area: f64,
+    eps: f64,
+    stress: f64,
+    force: f64,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    eps1: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    eps2: Option<f64>,
+    eps3: f64,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    fse: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    active: Option<bool>,
+}
+
+fn layer_json(l: &LayerOut, strand: bool) -> LayerJson {
+    LayerJson {
+        depth: l.depth,
+        area: l.area,
+        eps: l.eps,
+        stress: l.stress,
+        force: l.force,
+        eps1: l.eps1.filter(|_| strand),
+        eps2: l.eps2.filter(|_| strand),
+        eps3: l.eps3,
+        fse: l.fse.filter(|_| strand),
+        active: strand.then_some(l.active),
     }
-    v
 }
 
-fn location_json(l: &LocationResult) -> Value {
-    json!({
-        "name": l.name,
-        "x": l.x,
-        "c": l.c,
-        "a": l.a,
-        "beta1": l.beta1,
-        "zone": l.zone,
-        "eps_t": l.eps_t,
-        "phi": l.phi,
-        "mn": l.mn,
-        "phi_mn": l.phi_mn,
-        "mu": l.mu,
-        "ratio": l.ratio,
-        "control": l.control,
-        "mcr": l.mcr,
-        "min_reinforcement_ok": l.min_reinforcement.ok,
-        "min_reinforcement_waived": !l.min_reinforcement.ok && l.min_reinforcement.waiver_flexure,
-        "rupture_risk": l.rupture_risk,
-        "pass": l.pass,
-        "conclusion": l.conclusion,
-        "strands": l.strands.iter().map(|s| layer_json(s, true)).collect::<Vec<_>>(),
-        "bars": l.bars.iter().map(|s| layer_json(s, false)).collect::<Vec<_>>(),
-    })
+#[derive(Serialize)]
+struct LocationJson<'a> {
+    #[serde(skip_serializing_if = "Option::is_none")]
+    name: Option<&'a str>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    x: Option<Option<f64>>,
+    c: f64,
+    a: f64,
+    beta1: f64,
+    zone: &'a str,
+    eps_t: f64,
+    phi: f64,
+    mn: f64,
+    phi_mn: f64,
+    mu: f64,
+    ratio: f64,
+    control: &'a str,
+    mcr: f64,
+    min_reinforcement_ok: bool,
+    min_reinforcement_waived: bool,
+    rupture_risk: bool,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pass: Option<bool>,
+    conclusion: &'a str,
+    strands: Vec<LayerJson>,
+    bars: Vec<LayerJson>,
 }
 
-fn member_json(m: &MemberResult) -> Value {
-    let mut v = location_json(m.governing());
-    let obj = v.as_object_mut().expect("location_json builds an object");
-    obj.remove("name");
-    obj.remove("x");
-    obj.insert("id".into(), json!(m.id));
-    obj.insert("governing".into(), json!(m.governing().name));
-    obj.insert("pass".into(), json!(m.pass));
-    obj.insert("locations".into(), Value::Array(m.locations.iter().map(location_json).collect()));
-    v
+fn location_json(l: &LocationResult, top_level: bool) -> LocationJson<'_> {
+    LocationJson {
+        name: (!top_level).then_some(l.name.as_str()),
+        x: (!top_level).then_some(l.x),
+        c: l.c,
+        a: l.a,
+        beta1: l.beta1,
+        zone: l.zone,
+        eps_t: l.eps_t,
+        phi: l.phi,
+        mn: l.mn,
+        phi_mn: l.phi_mn,
+        mu: l.mu,
+        ratio: l.ratio,
+        control: l.control,
+        mcr: l.mcr,
+        min_reinforcement_ok: l.min_reinforcement.ok,
+        min_reinforcement_waived: !l.min_reinforcement.ok && l.min_reinforcement.waiver_flexure,
+        rupture_risk: l.rupture_risk,
+        pass: (!top_level).then_some(l.pass),
+        conclusion: &l.conclusion,
+        strands: l.strands.iter().map(|s| layer_json(s, true)).collect(),
+        bars: l.bars.iter().map(|s| layer_json(s, false)).collect(),
+    }
+}
+
+#[derive(Serialize)]
+struct MemberJson<'a> {
+    id: &'a str,
+    /// Name of the governing location, whose results are the member's fields.
+    governing: &'a str,
+    pass: bool,
+    #[serde(flatten)]
+    top: LocationJson<'a>,
+    locations: Vec<LocationJson<'a>>,
 }
 
 /// `check --json`: the contract of the design document.
-pub fn check_json(pkg: &Package, a: &Analysis) -> Value {
-    json!({
-        "format": 1,
-        "units": pkg.units.names(),
-        "pass": a.pass(),
-        "members": a.members.iter().map(member_json).collect::<Vec<_>>(),
-        "warnings": pkg.warnings,
-    })
+#[derive(Serialize)]
+pub struct CheckJson<'a> {
+    format: u32,
+    units: crate::units::UnitNames,
+    pass: bool,
+    members: Vec<MemberJson<'a>>,
+    warnings: &'a [crate::input::model::Warning],
+}
+
+pub fn check_json<'a>(pkg: &'a Package, a: &'a Analysis) -> CheckJson<'a> {
+    CheckJson {
+        format: 1,
+        units: pkg.units.names(),
+        pass: a.pass(),
+        members: a
+            .members
+            .iter()
+            .map(|m: &MemberResult| MemberJson {
+                id: &m.id,
+                governing: &m.governing().name,
+                pass: m.pass,
+                top: location_json(m.governing(), true),
+                locations: m.locations.iter().map(|l| location_json(l, false)).collect(),
+            })
+            .collect(),
+        warnings: &pkg.warnings,
+    }
 }
 
 /// `check`: one row per location.
@@ -281,6 +341,42 @@ pub fn trace_csv(pkg: &Package, members: &[&MemberResult]) -> String {
                 row(&m.id, &l.name, st);
             }
         }
+    }
+    out
+}
+
+/// `curve --format json`.
+pub fn curve_json(pkg: &Package, c: &crate::analysis::curve::CurveResult, l: &LocationResult) -> Value {
+    let u = pkg.units.names();
+    json!({
+        "member": c.member,
+        "location": c.location,
+        "units": {"curvature": format!("1/{}", u.length), "moment": u.moment, "length": u.length},
+        "points": c.points,
+        "cracking_moment": c.cracking.map(|m| m.moment),
+        "yield_moment": c.yielding.map(|m| m.moment),
+        "peak_moment": c.peak.moment,
+        "ductility": c.ductility,
+        "ended_by": c.ended_by,
+        "cracking": c.cracking,
+        "yield": c.yielding,
+        "peak": c.peak,
+        "ultimate": c.ultimate,
+        "concrete_model": c.concrete_model,
+        "strips": c.strips,
+        "notes": c.notes,
+        "stress_block": {"mn": l.mn, "phi_mn": l.phi_mn, "mu": l.mu, "mcr": l.mcr},
+    })
+}
+
+/// `curve --format csv`: one row per point.
+pub fn curve_csv(c: &crate::analysis::curve::CurveResult) -> String {
+    let mut out = String::from("curvature,moment,top_strain,neutral_axis,strand_strain\n");
+    for p in &c.points {
+        out.push_str(&format!(
+            "{},{},{},{},{}\n",
+            p.curvature, p.moment, p.top_strain, p.neutral_axis, p.strand_strain
+        ));
     }
     out
 }

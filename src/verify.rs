@@ -218,7 +218,7 @@ pub fn verify(path: &Path, opts: &Options) -> Result<Report> {
     let reanalysed = (|| -> std::result::Result<(Source, input::Package, crate::analysis::Analysis), String> {
         let src = input::from_bytes(name.clone(), o.input.clone()).map_err(|e| e.to_string())?;
         let pkg = input::parse(&src).map_err(|e| format!("the attached input no longer reads: {e}"))?;
-        let a = crate::analysis::analyze(&pkg, true).map_err(|e| e.to_string())?;
+        let a = crate::analysis::analyze_full(&pkg).map_err(|e| e.to_string())?;
         Ok((src, pkg, a))
     })();
     match (&reanalysed, &templates) {

@@ -60,7 +60,7 @@ fn squash(s: &str) -> String {
 fn displayed_values_equal_the_trace() {
     for ex in EXAMPLES {
         let (src, pkg) = input::load(&example(ex)).unwrap();
-        let a = strainsheet::analysis::analyze(&pkg, true).unwrap();
+        let a = strainsheet::analysis::analyze_full(&pkg).unwrap();
         let r = strainsheet::report::render(&pkg, &src, &a, &strainsheet::report::Templates::builtin()).unwrap();
         let n = pages(&r.pdf);
         let sheets: Vec<String> = (1..=n).map(|p| squash(&pdftotext(&r.pdf, Some(p)))).collect();

@@ -213,7 +213,7 @@ pub(super) fn phi_development(
             let st = Step::new(
                 "checks",
                 tag(li, &format!("dev.phi.{k}")),
-                format!("phi for strand not fully developed, layer {k}"),
+                format!("Strength reduction factor, strand not fully developed, layer {k}"),
                 si("phi", "\"dev\"", "phi_dev", k),
             )
             .clause("ACI 318-19 21.2.3, Table 21.2.3");
@@ -543,22 +543,12 @@ pub(super) fn approximate(
     let area_above = |a: f64| parts.iter().map(|r| r.above(p.top - a).area).sum::<f64>();
     let block_for = |t: f64| -> Option<f64> {
         let need = t / (0.85 * fc);
-        if area_above(h) < need {
+        let g = |a: f64| area_above(a) - need;
+        let (g0, gh) = (g(0.0), g(h));
+        if gh < 0.0 {
             return None;
         }
-        let (mut lo, mut hi) = (0.0, h);
-        for _ in 0..200 {
-            let mid = 0.5 * (lo + hi);
-            if area_above(mid) < need {
-                lo = mid;
-            } else {
-                hi = mid;
-            }
-            if hi - lo <= 1e-12 * h {
-                break;
-            }
-        }
-        Some(0.5 * (lo + hi))
+        super::roots::brent(g, 0.0, h, g0, gh, 1e-13 * h, 1e-12 * need)
     };
     let t_total = |fps: f64| aps * fps + as_ * fy;
     let Some(mut a) = block_for(t_total(fps)) else {

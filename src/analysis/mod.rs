@@ -8,6 +8,8 @@
 //! the code's approximate fps for comparison; the conclusion.
 
 pub mod checks;
+pub mod curve;
+pub mod roots;
 pub mod solve;
 
 use crate::error::{Error, Result};
@@ -235,6 +237,10 @@ pub struct MemberResult {
     pub governing: usize,
     pub pass: bool,
     pub trace: Vec<Step>,
+    /// The moment-curvature response at the governing location (filled by
+    /// [`analyze_full`]), or why it could not be found.
+    pub curve: Option<curve::CurveResult>,
+    pub curve_error: Option<String>,
 }
 
 impl MemberResult {
@@ -259,6 +265,19 @@ impl Analysis {
 pub fn analyze(pkg: &Package, trace: bool) -> Result<Analysis> {
     let members = pkg.members.par_iter().map(|m| analyze_member(m, pkg.units, trace)).collect::<Result<Vec<_>>>()?;
     Ok(Analysis { units: pkg.units, members })
+}
+
+/// Everything the package shows: the traced analysis and each member's
+/// moment-curvature response at its governing location.
+pub fn analyze_full(pkg: &Package) -> Result<Analysis> {
+    let mut a = analyze(pkg, true)?;
+    a.members.par_iter_mut().zip(pkg.members.par_iter()).for_each(|(r, m)| {
+        match curve::moment_curvature(m, pkg.units, r.governing) {
+            Ok(c) => r.curve = Some(c),
+            Err(e) => r.curve_error = Some(e.to_string()),
+        }
+    });
+    Ok(a)
 }
 
 // ---- symbols ---------------------------------------------------------------------
@@ -541,6 +560,30 @@ struct StrandAt {
     dev: Option<Development>,
 }
 
+/// Each strand layer at a location: depth (harped profile at x), effective prestress
+/// after transfer, and whether it is bonded there.
+fn strands_at(p: &Prepared, li: usize, loc: &crate::input::model::Location, tr: &mut Trace) -> Vec<StrandAt> {
+    let m = p.m;
+    m.strands
+        .iter()
+        .enumerate()
+        .map(|(i, s)| {
+            let depth_p = s.profile.depth_at(loc.x);
+            let y = p.top_p - depth_p;
+            let (fse, active, dev) = checks::transfer(p, li, i, s, loc.x, tr);
+            StrandAt {
+                d: depth_p + p.t,
+                yb: p.precast.yc - y,
+                fse,
+                eps1: fse / p.curves[i].eps_modulus,
+                eps2: 0.0,
+                active,
+                dev,
+            }
+        })
+        .collect()
+}
+
 pub fn analyze_member(m: &Member, sys: System, trace: bool) -> Result<MemberResult> {
     let mut tr = Trace::new(trace);
     let p = prepare(m, sys, &mut tr)?;
@@ -573,7 +616,16 @@ pub fn analyze_member(m: &Member, sys: System, trace: bool) -> Result<MemberResu
         beta1: p.beta1,
         geometry,
     };
-    Ok(MemberResult { id: m.id.clone(), section, locations, governing, pass, trace: tr.steps })
+    Ok(MemberResult {
+        id: m.id.clone(),
+        section,
+        locations,
+        governing,
+        pass,
+        trace: tr.steps,
+        curve: None,
+        curve_error: None,
+    })
 }
 
 fn parts_for<'a>(p: &'a Prepared, block: Option<BlockMode>) -> Vec<Part<'a>> {
@@ -665,21 +717,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
 
     // ---- development and prestress at x -----------------------------------------
     let eps_mod: Vec<f64> = p.curves.iter().map(|c| c.eps_modulus).collect();
-    let mut at: Vec<StrandAt> = Vec::with_capacity(m.strands.len());
-    for (i, s) in m.strands.iter().enumerate() {
-        let depth_p = s.profile.depth_at(loc.x);
-        let y = p.top_p - depth_p;
-        let (fse, active, dev) = checks::transfer(p, li, i, s, loc.x, &mut tr);
-        at.push(StrandAt {
-            d: depth_p + p.t,
-            yb: p.precast.yc - y,
-            fse,
-            eps1: fse / eps_mod[i],
-            eps2: 0.0,
-            active,
-            dev,
-        });
-    }
+    let mut at = strands_at(p, li, loc, &mut tr);
     if loc.x.is_none() {
         notes.push("No distance from the member end is given: the strands are taken as fully developed here.".into());
     }
@@ -1005,7 +1043,10 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
             minr.clause, minr.waiver_clause
         ));
     }
-    let block_rings = {
+    // the block's outline is drawn only in the package (traced runs)
+    let block_rings = if !trace {
+        Vec::new()
+    } else {
         let y0 = p.top - st.a;
         let mut rings = Vec::new();
         for part in &model.parts {
@@ -1087,6 +1128,8 @@ fn record_solution(
     trials: usize,
 ) -> Strength {
     let m = p.m;
+    // the sketch's steel positions are drawn only in the package (traced runs)
+    let sketch = tr.on();
     let cv = p.cv;
     let tag = |k: &str| format!("L{}.{k}", li + 1);
     let c = st.c;
@@ -1298,7 +1341,7 @@ fn record_solution(
                 s_.count,
                 s_.area,
                 s_.diameter,
-                layer_points(&m.region, y, s_.count),
+                if sketch { layer_points(&m.region, y, s_.count) } else { Vec::new() },
             )
         } else {
             let b = &m.bars[j - ns];
@@ -1307,7 +1350,16 @@ fn record_solution(
                 None => format!("{} × {} {}", b.count, crate::trace::show(b.diameter), p.sys.names().length),
             };
             let y = p.top - stl.d;
-            (None, None, None, label, b.count, b.area, b.diameter, layer_points(&m.region, y, b.count))
+            (
+                None,
+                None,
+                None,
+                label,
+                b.count,
+                b.area,
+                b.diameter,
+                if sketch { layer_points(&m.region, y, b.count) } else { Vec::new() },
+            )
         };
         let out = LayerOut {
             kind,

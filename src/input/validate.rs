@@ -313,25 +313,41 @@ pub fn package(cx: &mut Ctx, f: &raw::File) -> Option<Package> {
         );
         return None;
     }
-    let mut members = Vec::with_capacity(f.member.len());
     let mut seen = std::collections::HashMap::new();
     for (i, m) in f.member.iter().enumerate() {
-        cx.enter(Seg::Key("member"));
-        cx.enter(Seg::Idx(i));
         if let Some(id) = &m.id
             && let Some(first) = seen.insert(id.clone(), i)
         {
-            cx.problem(
-                "id",
-                format!("id = {id:?} is used twice (also by member [{}])", first + 1),
-                Some("a unique id for every member".to_string()),
-            );
+            cx.problems.push(Problem {
+                path: vec![Seg::Key("member"), Seg::Idx(i), Seg::Key("id")],
+                message: format!("id = {id:?} is used twice (also by member [{}])", first + 1),
+                allowed: Some("a unique id for every member".to_string()),
+            });
         }
-        if let Some(member) = member(cx, m) {
-            members.push(member);
+    }
+    // members are independent: validate them in parallel, each with its own context,
+    // and keep the problems in member order
+    use rayon::prelude::*;
+    let sys = cx.sys;
+    let checked: Vec<(Option<Member>, Vec<Problem>, Vec<(Vec<Seg>, String)>)> = f
+        .member
+        .par_iter()
+        .enumerate()
+        .map(|(i, m)| {
+            let mut c = Ctx::new(sys);
+            c.enter(Seg::Key("member"));
+            c.enter(Seg::Idx(i));
+            let r = member(&mut c, m);
+            (r, c.problems, c.warnings)
+        })
+        .collect();
+    let mut members = Vec::with_capacity(checked.len());
+    for (m, problems, warnings) in checked {
+        cx.problems.extend(problems);
+        cx.warnings.extend(warnings);
+        if let Some(m) = m {
+            members.push(m);
         }
-        cx.leave();
-        cx.leave();
     }
     let meta = meta?;
     if !cx.problems.is_empty() {

@@ -19,6 +19,7 @@ const BUILTIN: &[(&str, &str)] = &[
     ("sheet.typ", include_str!("../../templates/sheet.typ")),
     ("member.typ", include_str!("../../templates/member.typ")),
     ("figures.typ", include_str!("../../templates/figures.typ")),
+    ("curve.typ", include_str!("../../templates/curve.typ")),
 ];
 
 /// Names the world reserves for the package's data.

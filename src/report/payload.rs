@@ -54,7 +54,10 @@ pub fn step_view(st: &Step, sys: System) -> Value {
         "shown_math": shown_math(st.value, st.unit),
         "scale": scale(st.unit).1,
         "unit": unit_name(st.unit, sys),
-        "clause": st.clause,
+        "clause": st.clause.as_ref().map(|c| match sys {
+            System::Si => c.replace("ACI 318-19", "ACI 318M-19"),
+            System::Us => c.clone(),
+        }),
         "note": st.note,
         "tree": st.formula,
         "inputs": st.inputs.iter().map(|i| json!({
@@ -161,10 +164,89 @@ fn location_view(l: &LocationResult, sys: System) -> Value {
             "approx_diff": opt(l.approximate.difference),
             "other_mn": opt(l.other_block.as_ref().map(|o| o.mn)),
             "max_strand_strain": scaled(l.max_strand_strain, Unit::Strain),
+            "eps_cu": crate::trace::const_text(crate::material::concrete::EPS_CU),
             "x_label": match l.x { Some(x) => format!("x = {} {}", show(x), u.length), None => "strands taken as fully developed".into() },
         }),
     );
     v
+}
+
+/// Tick positions for an axis from lo to hi: about five steps of 1, 2, 2.5 or 5 × 10^k.
+fn ticks(lo: f64, hi: f64) -> Vec<f64> {
+    let span = (hi - lo).abs();
+    if span <= 0.0 || !span.is_finite() {
+        return vec![lo];
+    }
+    let raw = span / 5.0;
+    let mag = 10f64.powf(raw.log10().floor());
+    let step = [1.0, 2.0, 2.5, 5.0, 10.0].iter().map(|k| k * mag).find(|s| *s >= raw).unwrap_or(10.0 * mag);
+    let first = (lo / step).ceil() * step;
+    let mut out = Vec::new();
+    let mut t = first;
+    while t <= hi + 1e-9 * span {
+        out.push(if t.abs() < 1e-12 * span { 0.0 } else { t });
+        t += step;
+    }
+    out
+}
+
+/// The moment-curvature plot and its table, ready to draw.
+fn curve_view(c: &crate::analysis::curve::CurveResult, l: &LocationResult, sys: System) -> Value {
+    let u = sys.names();
+    let kscale = 1e6; // curvature shown as ×10⁻⁶ per unit length
+    let (kmin, kmax) = c.points.iter().fold((0.0f64, 0.0f64), |(a, b), p| (a.min(p.curvature), b.max(p.curvature)));
+    let mmax = c.points.iter().map(|p| p.moment).fold(l.mn.max(l.mu).max(l.mcr), f64::max) * 1.08;
+    let mmin = c.points.iter().map(|p| p.moment).fold(0.0, f64::min);
+    let xt: Vec<Value> = ticks(kmin * kscale, kmax * kscale)
+        .into_iter()
+        .map(|t| json!({"value": t / kscale, "label": show_tick(t)}))
+        .collect();
+    let yt: Vec<Value> = ticks(mmin, mmax).into_iter().map(|t| json!({"value": t, "label": show_tick(t)})).collect();
+    let mark = |name: &str, m: Option<crate::analysis::curve::Mark>| {
+        m.map(|m| json!({"name": name, "curvature": m.curvature, "moment": m.moment, "curvature_shown": show(m.curvature * kscale), "moment_shown": show(m.moment)}))
+    };
+    let marks: Vec<Value> = [
+        mark("cracking", c.cracking),
+        mark("first yield", c.yielding),
+        mark("peak", Some(c.peak)),
+        mark("end", Some(c.ultimate)),
+    ]
+    .into_iter()
+    .flatten()
+    .collect();
+    let lines = vec![
+        json!({"name": "Mn (stress block)", "value": l.mn, "shown": show(l.mn)}),
+        json!({"name": "φMn", "value": l.phi_mn, "shown": show(l.phi_mn)}),
+        json!({"name": "Mu", "value": l.mu, "shown": show(l.mu)}),
+        json!({"name": "Mcr (formula)", "value": l.mcr, "shown": show(l.mcr)}),
+    ];
+    json!({
+        "location": c.location,
+        "x_range": [kmin, kmax],
+        "y_range": [mmin, mmax],
+        "x_ticks": xt,
+        "y_ticks": yt,
+        "x_label": format!("curvature ×10⁻⁶ 1/{}", u.length),
+        "y_label": format!("moment {}", u.moment),
+        "points": c.points.iter().map(|p| [p.curvature, p.moment]).collect::<Vec<_>>(),
+        "marks": marks,
+        "lines": lines,
+        "ductility": c.ductility.map(show),
+        "ended_by": c.ended_by,
+        "concrete_model": c.concrete_model,
+        "strips": c.strips.to_string(),
+        "points_count": c.points.len().to_string(),
+        "notes": c.notes,
+        "peak_vs_mn": show((c.peak.moment - l.mn) / l.mn * 100.0),
+        "cracking_vs_mcr": c.cracking.map(|k| show((k.moment - l.mcr) / l.mcr * 100.0)),
+    })
+}
+
+/// A tick label: short, no trailing zeros.
+fn show_tick(t: f64) -> String {
+    let s = format!("{:.3}", t);
+    let s = s.trim_end_matches('0').trim_end_matches('.');
+    if s == "-0" { "0".into() } else { s.to_string() }
 }
 
 fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: System) -> Value {
@@ -173,6 +255,9 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
     let mut rows: Vec<Value> = Vec::new();
     let mut row = |k: &str, v: String| rows.push(json!([k, v]));
     row("Section", input.shape.name().to_string());
+    if let crate::section::shapes::Shape::HollowCore { void_count, .. } = input.shape {
+        row("Voids", format!("{void_count} round voids"));
+    }
     for (k, v) in shape_dims(&input.shape) {
         row(k, format!("{} {}", show(v), u.length));
     }
@@ -258,6 +343,8 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
         "section": m.section,
         "section_shown": {
             "height": format!("{} {}", show(m.section.height), u.length),
+            "precast_height": format!("{} {}", show(m.section.precast_height), u.length),
+            "topping_thickness": input.topping.as_ref().map(|t| format!("{} {}", show(t.thickness), u.length)),
             "width": format!("{} {}", show(m.section.geometry.x_max - m.section.geometry.x_min), u.length),
         },
         "input_rows": rows,
@@ -268,6 +355,9 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
         "locations": locations,
         "defaults": input.defaults,
         "input": input,
+        "curve": m.curve.as_ref().map(|c| curve_view(c, &m.locations[m.governing], sys)),
+        "curve_data": m.curve,
+        "curve_error": m.curve_error,
     })
 }
 
@@ -314,10 +404,9 @@ fn shape_dims(s: &crate::section::shapes::Shape) -> Vec<(&'static str, f64)> {
             ("Bottom flange thickness", bottom_flange_thickness),
             ("Bottom taper", bottom_taper),
         ],
-        HollowCore { width, height, void_count, void_diameter, void_center_height } => vec![
+        HollowCore { width, height, void_diameter, void_center_height, .. } => vec![
             ("Width", width),
             ("Height", height),
-            ("Voids", void_count as f64),
             ("Void diameter", void_diameter),
             ("Void centre height", void_center_height),
         ],
@@ -341,7 +430,11 @@ pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Va
     for m in &pkg.members {
         for d in &m.defaults {
             match defaults.iter_mut().find(|(t, _)| *t == d.text) {
-                Some((_, ids)) => ids.push(m.id.clone()),
+                Some((_, ids)) => {
+                    if !ids.contains(&m.id) {
+                        ids.push(m.id.clone());
+                    }
+                }
                 None => defaults.push((d.text.clone(), vec![m.id.clone()])),
             }
         }

@@ -135,11 +135,29 @@ fn ring_above(ring: &[P], y0: f64) -> Moments {
     acc.close()
 }
 
-/// A polygon with holes.
+/// A polygon with holes. Build it with [`Region::new`], which also caches each ring's
+/// height range and moments (so clipping skips rings wholly above or below the cut).
 #[derive(Clone, Debug, Serialize, PartialEq)]
 pub struct Region {
     pub outline: Vec<P>,
     pub holes: Vec<Vec<P>>,
+    #[serde(skip)]
+    cache: Vec<RingInfo>,
+}
+
+#[derive(Clone, Copy, Debug, PartialEq)]
+struct RingInfo {
+    y_min: f64,
+    y_max: f64,
+    full: Moments,
+}
+
+impl RingInfo {
+    fn of(ring: &[P]) -> RingInfo {
+        let (y_min, y_max) =
+            ring.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), p| (lo.min(p[1]), hi.max(p[1])));
+        RingInfo { y_min, y_max, full: ring_moments(ring) }
+    }
 }
 
 /// Properties of a region about its own centroid.
@@ -191,7 +209,9 @@ impl Region {
                 h.reverse();
             }
         }
-        Region { outline, holes }
+        let cache =
+            std::iter::once(outline.as_slice()).chain(holes.iter().map(|h| h.as_slice())).map(RingInfo::of).collect();
+        Region { outline, holes, cache }
     }
 
     pub fn rings(&self) -> impl Iterator<Item = &[P]> {
@@ -199,15 +219,19 @@ impl Region {
     }
 
     pub fn moments(&self) -> Moments {
-        self.rings().map(ring_moments).fold(Moments::default(), |a, b| a + b)
+        self.cache.iter().map(|c| c.full).fold(Moments::default(), |a, b| a + b)
     }
 
     /// Exact area integrals of the part of the region with y >= y0.
     #[inline]
     pub fn above(&self, y0: f64) -> Moments {
-        let mut m = ring_above(&self.outline, y0);
-        for h in &self.holes {
-            m = m + ring_above(h, y0);
+        let mut m = Moments::default();
+        for (ring, info) in self.rings().zip(&self.cache) {
+            if y0 <= info.y_min {
+                m = m + info.full;
+            } else if y0 < info.y_max {
+                m = m + ring_above(ring, y0);
+            }
         }
         m
     }
@@ -230,10 +254,10 @@ impl Region {
     }
 
     pub fn y_top(&self) -> f64 {
-        self.outline.iter().map(|p| p[1]).fold(f64::NEG_INFINITY, f64::max)
+        self.cache[0].y_max
     }
     pub fn y_bot(&self) -> f64 {
-        self.outline.iter().map(|p| p[1]).fold(f64::INFINITY, f64::min)
+        self.cache[0].y_min
     }
     pub fn x_min(&self) -> f64 {
         self.outline.iter().map(|p| p[0]).fold(f64::INFINITY, f64::min)

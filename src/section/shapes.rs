@@ -90,15 +90,19 @@ pub const VOID_SIDES: usize = 64;
 /// A circle as a regular polygon of [`VOID_SIDES`] sides with the circle's area (its
 /// circumradius is enlarged by sqrt(2π / (n sin(2π/n))), 1.0008 for 64 sides).
 pub fn circle(cx: f64, cy: f64, d: f64) -> Vec<P> {
-    let n = VOID_SIDES as f64;
-    let t = 2.0 * std::f64::consts::PI / n;
-    let r = d / 2.0 * (t / t.sin()).sqrt();
-    (0..VOID_SIDES)
-        .map(|k| {
-            let a = std::f64::consts::FRAC_PI_2 + t * k as f64;
-            [cx + r * a.cos(), cy + r * a.sin()]
-        })
-        .collect()
+    // the unit polygon (area pi), computed once
+    static UNIT: std::sync::LazyLock<Vec<P>> = std::sync::LazyLock::new(|| {
+        let t = 2.0 * std::f64::consts::PI / VOID_SIDES as f64;
+        let r = (t / t.sin()).sqrt();
+        (0..VOID_SIDES)
+            .map(|k| {
+                let a = std::f64::consts::FRAC_PI_2 + t * k as f64;
+                [r * a.cos(), r * a.sin()]
+            })
+            .collect()
+    });
+    let r = d / 2.0;
+    UNIT.iter().map(|p| [cx + r * p[0], cy + r * p[1]]).collect()
 }
 
 impl Shape {

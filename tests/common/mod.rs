@@ -56,7 +56,7 @@ pub fn example(name: &str) -> std::path::PathBuf {
 
 /// Renders a package (library path) and returns the PDF bytes.
 pub fn render(pkg: &Package, src: &Source) -> strainsheet::report::Rendered {
-    let a = strainsheet::analysis::analyze(pkg, true).expect("analysis");
+    let a = strainsheet::analysis::analyze_full(pkg).expect("analysis");
     strainsheet::report::render(pkg, src, &a, &strainsheet::report::Templates::builtin()).expect("render")
 }
 

@@ -1,0 +1,513 @@
+//! Moment-curvature response of a member's section by a layered (fibre) analysis.
+//!
+//! The concrete is cut into horizontal strips whose areas and centroids are exact (each
+//! strip is the difference of two clipped areas of the outline, never a sample of the
+//! width); steel layers are discrete. Concrete follows the Hognestad curve (or Popovics /
+//! Thorenfeldt with the Collins-Mitchell parameters), linear in tension up to fr and
+//! zero beyond; strand follows the same curve as the strength calculation, carrying its
+//! effective prestrain; bars are elastic-perfectly-plastic (optionally hardening).
+//!
+//! Staging: the precast unit alone carries the prestress and, for a topped member, the
+//! non-composite moment Mnc; the topping starts at zero strain once it acts. From that
+//! state the curvature is increased in steps; at each step axial equilibrium is solved
+//! for the strain at the reference level by Brent's method. The curve ends when the most
+//! compressed concrete fibre reaches the crushing strain or a strand reaches its rupture
+//! strain, whichever comes first.
+
+use super::roots::{bracket, brent};
+use super::{Prepared, prepare, strands_at};
+use crate::error::{Error, Result};
+use crate::input::model::{Location, Member};
+use crate::material::concrete::{Curve as ConcreteCurve, Law};
+use crate::material::steel::Bar;
+use crate::material::strand::Curve as StrandCurve;
+use crate::section::Region;
+use crate::trace::Trace;
+use crate::units::System;
+use serde::Serialize;
+
+/// Concrete strips: centroid heights and areas.
+struct Strips {
+    y: Vec<f64>,
+    a: Vec<f64>,
+}
+
+/// Exact strips of a region between two heights.
+fn strips(region: &Region, y_bot: f64, y_top: f64, n: usize) -> Strips {
+    let h = (y_top - y_bot) / n as f64;
+    let mut y = Vec::with_capacity(n);
+    let mut a = Vec::with_capacity(n);
+    let mut upper = region.above(y_top);
+    for k in 0..n {
+        let lo = y_top - (k + 1) as f64 * h;
+        let below = region.above(if k + 1 == n { y_bot - 1.0 } else { lo });
+        let s = below - upper;
+        if s.area > 1e-12 * h * h {
+            y.push(s.qx / s.area);
+            a.push(s.area);
+        }
+        upper = below;
+    }
+    Strips { y, a }
+}
+
+#[derive(Clone, Copy)]
+enum SteelLaw {
+    Strand(StrandCurve),
+    Bar(Bar),
+}
+
+#[derive(Clone, Copy)]
+struct Steel {
+    y: f64,
+    area: f64,
+    law: SteelLaw,
+    /// Strain at the starting state (strand: eps1 = fse / Eps; bars: 0).
+    eps0: f64,
+}
+
+impl Steel {
+    fn stress(&self, eps: f64, hardening: bool) -> f64 {
+        match self.law {
+            SteelLaw::Strand(c) => c.stress(eps),
+            SteelLaw::Bar(b) => {
+                if hardening {
+                    b.stress_hardening(eps)
+                } else {
+                    b.stress(eps)
+                }
+            }
+        }
+    }
+}
+
+struct Fibres {
+    /// Reference level: the centroid of the precast unit.
+    yr: f64,
+    precast: Strips,
+    law_p: Law,
+    topping: Option<(Strips, Law)>,
+    steel: Vec<Steel>,
+    hardening: bool,
+    y_top_p: f64,
+    y_top: f64,
+    /// Deepest bonded strand (index into steel).
+    extreme: Option<usize>,
+}
+
+/// A state: the precast strain at the reference level and curvature at the start
+/// (e0, k0), and the increments once the topping acts (d0, dk). Curvature is positive
+/// for sagging (compression at the top): strain(y) = e - k (y - yr).
+#[derive(Clone, Copy, Debug, Default)]
+struct State {
+    e0: f64,
+    k0: f64,
+    d0: f64,
+    dk: f64,
+}
+
+impl Fibres {
+    #[inline]
+    fn precast_strain(&self, s: &State, y: f64) -> f64 {
+        (s.e0 + s.d0) - (s.k0 + s.dk) * (y - self.yr)
+    }
+    #[inline]
+    fn increment(&self, s: &State, y: f64) -> f64 {
+        s.d0 - s.dk * (y - self.yr)
+    }
+
+    /// Axial force and moment about the reference level (sagging positive), with the
+    /// steel at its starting force (initial stage) or following the increments.
+    fn forces(&self, s: &State, initial: bool) -> (f64, f64) {
+        let (mut n, mut m) = (0.0, 0.0);
+        let (e, k) = (s.e0 + s.d0, s.k0 + s.dk);
+        let yr = self.yr;
+        for (y, a) in self.precast.y.iter().zip(&self.precast.a) {
+            let f = self.law_p.stress(e - k * (y - yr)) * a;
+            n += f;
+            m -= f * (y - yr);
+        }
+        if !initial && let Some((st, law)) = &self.topping {
+            for (y, a) in st.y.iter().zip(&st.a) {
+                let f = law.stress(s.d0 - s.dk * (y - yr)) * a;
+                n += f;
+                m -= f * (y - yr);
+            }
+        }
+        for st in &self.steel {
+            let eps = if initial { st.eps0 } else { st.eps0 + self.increment(s, st.y) };
+            let f = st.stress(eps, self.hardening) * st.area;
+            n += f;
+            m -= f * (st.y - yr);
+        }
+        (n, m)
+    }
+
+    /// The starting state of the precast unit under prestress and a moment: Newton's
+    /// method on (e0, k0), from the elastic estimate.
+    fn initial(&self, moment: f64, scale_n: f64, scale_m: f64, h: f64) -> Option<State> {
+        let pe: f64 = self.steel.iter().map(|s| s.stress(s.eps0, false) * s.area).sum();
+        let area: f64 = self.precast.a.iter().sum();
+        let inertia: f64 = self.precast.y.iter().zip(&self.precast.a).map(|(y, a)| a * (y - self.yr).powi(2)).sum();
+        let ms: f64 = self.steel.iter().map(|s| -s.stress(s.eps0, false) * s.area * (s.y - self.yr)).sum();
+        let ec = self.law_p.ec;
+        let mut x = [-pe / (ec * area), (moment - ms) / (ec * inertia)];
+        let res = |x: [f64; 2]| {
+            let (n, m) = self.forces(&State { e0: x[0], k0: x[1], d0: 0.0, dk: 0.0 }, true);
+            [n, m - moment]
+        };
+        for _ in 0..60 {
+            let r = res(x);
+            if r[0].abs() <= 1e-11 * scale_n && r[1].abs() <= 1e-11 * scale_m {
+                return Some(State { e0: x[0], k0: x[1], d0: 0.0, dk: 0.0 });
+            }
+            let (h0, h1) = (1e-8, 1e-8 / h);
+            let r0 = res([x[0] + h0, x[1]]);
+            let r1 = res([x[0], x[1] + h1]);
+            let j = [[(r0[0] - r[0]) / h0, (r1[0] - r[0]) / h1], [(r0[1] - r[1]) / h0, (r1[1] - r[1]) / h1]];
+            let det = j[0][0] * j[1][1] - j[0][1] * j[1][0];
+            if det == 0.0 || !det.is_finite() {
+                return None;
+            }
+            let dx = [(r[0] * j[1][1] - r[1] * j[0][1]) / det, (j[0][0] * r[1] - j[1][0] * r[0]) / det];
+            x = [x[0] - dx[0], x[1] - dx[1]];
+        }
+        None
+    }
+
+    /// Solves axial equilibrium for d0 at a curvature increment, starting near `guess`.
+    fn equilibrium(&self, base: &State, dk: f64, guess: f64, scale_n: f64, h: f64) -> Option<State> {
+        let f = |d0: f64| self.forces(&State { d0, dk, ..*base }, false).0;
+        let step = (dk.abs() * h).max(1e-6) * 0.5;
+        let (a, b, fa, fb) = bracket(f, guess, step, 60)?;
+        let d0 = brent(f, a, b, fa, fb, 1e-15, 1e-10 * scale_n)?;
+        Some(State { d0, dk, ..*base })
+    }
+
+    /// The most compressive concrete strain (at the top of the topping or the precast).
+    fn top_strain(&self, s: &State, initial: bool) -> f64 {
+        let p = self.precast_strain(s, self.y_top_p);
+        if self.topping.is_some() && !initial { p.min(self.increment(s, self.y_top)) } else { p }
+    }
+
+    fn strand_strain(&self, s: &State, initial: bool) -> f64 {
+        match self.extreme {
+            Some(i) => {
+                let st = &self.steel[i];
+                if initial { st.eps0 } else { st.eps0 + self.increment(s, st.y) }
+            }
+            None => 0.0,
+        }
+    }
+}
+
+/// One point of the curve. Curvature in 1/length, moment in the package's moment unit.
+#[derive(Debug, Clone, Copy, Serialize)]
+pub struct Point {
+    pub curvature: f64,
+    pub moment: f64,
+    pub top_strain: f64,
+    /// Depth of zero strain below the top of the section.
+    pub neutral_axis: f64,
+    pub strand_strain: f64,
+}
+
+/// A marked point.
+#[derive(Debug, Clone, Copy, Serialize)]
+pub struct Mark {
+    pub curvature: f64,
+    pub moment: f64,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct CurveResult {
+    pub member: String,
+    pub location: String,
+    pub concrete_model: &'static str,
+    pub strips: usize,
+    pub points: Vec<Point>,
+    pub cracking: Option<Mark>,
+    #[serde(rename = "yield")]
+    pub yielding: Option<Mark>,
+    pub peak: Mark,
+    pub ultimate: Mark,
+    pub ductility: Option<f64>,
+    pub ended_by: &'static str,
+    pub notes: Vec<String>,
+}
+
+fn model_name(c: ConcreteCurve) -> &'static str {
+    match c {
+        ConcreteCurve::Hognestad => "Hognestad",
+        ConcreteCurve::Popovics => "Popovics (Thorenfeldt, Collins-Mitchell parameters)",
+    }
+}
+
+fn fail(m: &Member, loc: &Location, why: &str) -> Error {
+    Error::Analysis {
+        member: m.id.clone(),
+        location: loc.name.clone(),
+        message: format!("moment-curvature analysis: {why}"),
+    }
+}
+
+fn build(p: &Prepared, loc: &Location, li: usize) -> Fibres {
+    let m = p.m;
+    let sys = p.sys;
+    let mut tr = Trace::new(false);
+    let at = strands_at(p, li, loc, &mut tr);
+    let opts = m.curve;
+    let c = &m.concrete;
+    let law_p = Law::new(c.curve, c.fc, c.ec, c.fr, sys);
+    let precast = strips(&m.region, m.region.y_bot(), p.top_p, opts.strips);
+    let topping = match (&m.topping, &p.topping_region) {
+        (Some(t), Some(r)) => {
+            let n = ((opts.strips as f64) * t.thickness / m.precast_height()).ceil().max(20.0) as usize;
+            let tc = &t.concrete;
+            Some((strips(r, p.top_p, p.top, n), Law::new(tc.curve, tc.fc, tc.ec, tc.fr, sys)))
+        }
+        _ => None,
+    };
+    let mut steel = Vec::new();
+    let mut extreme: Option<(usize, f64)> = None;
+    let mut deepest_bar: Option<(usize, f64)> = None;
+    for (i, (s, a)) in m.strands.iter().zip(&at).enumerate() {
+        if !a.active {
+            continue;
+        }
+        let _ = i;
+        let y = p.top - a.d;
+        if extreme.is_none_or(|(_, d)| a.d > d) {
+            extreme = Some((steel.len(), a.d));
+        }
+        steel.push(Steel { y, area: s.total_area(), law: SteelLaw::Strand(p.curves[i]), eps0: a.eps1 });
+    }
+    for b in &m.bars {
+        let y = p.top_p - b.depth;
+        if deepest_bar.is_none_or(|(_, d)| b.depth + p.t > d) {
+            deepest_bar = Some((steel.len(), b.depth + p.t));
+        }
+        let fu = b.fy * 1.5;
+        steel.push(Steel {
+            y,
+            area: b.total_area(),
+            law: SteelLaw::Bar(Bar { fy: b.fy, es: b.es, hardening: opts.bar_hardening, fu }),
+            eps0: 0.0,
+        });
+    }
+    Fibres {
+        yr: p.precast.yc,
+        precast,
+        law_p,
+        topping,
+        steel,
+        hardening: opts.bar_hardening > 0.0,
+        y_top_p: p.top_p,
+        y_top: p.top,
+        extreme: extreme.or(deepest_bar).map(|e| e.0),
+    }
+}
+
+/// The moment-curvature curve of a member at one of its locations (by index).
+pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResult> {
+    let loc = m.locations.get(li).ok_or_else(|| Error::Usage(format!("member {} has no location {}", m.id, li + 1)))?;
+    let mut tr = Trace::new(false);
+    let p = prepare(m, sys, &mut tr)?;
+    let f = build(&p, loc, li);
+    let opts = m.curve;
+    let h = m.total_height();
+    let km = p.cv.km;
+    let scale_n = m.concrete.fc * p.precast.area;
+    let scale_m = scale_n * h;
+    let mnc = if m.topping.is_some() { loc.mnc } else { 0.0 };
+    // first yield: of the deepest strand (0.9 fpu, low-relaxation), or of the deepest bar
+    // (fy) in a section without strand
+    let fpy = f.extreme.map(|i| match f.steel[i].law {
+        SteelLaw::Strand(c) => c.fpy(),
+        SteelLaw::Bar(b) => b.fy,
+    });
+    let eps_cr = f.law_p.fr / f.law_p.ec;
+    let y_bot_strip = f.precast.y.iter().copied().fold(f64::INFINITY, f64::min);
+
+    let point = |s: &State, initial: bool, moment: f64| -> Point {
+        let k = s.k0 + s.dk;
+        let e_ref = s.e0 + s.d0;
+        let na = if k.abs() > 0.0 { f.y_top - (f.yr + e_ref / k) } else { f64::NAN };
+        Point {
+            curvature: k,
+            moment: moment * km,
+            top_strain: f.top_strain(s, initial),
+            neutral_axis: na,
+            strand_strain: f.strand_strain(s, initial),
+        }
+    };
+
+    let mut pts: Vec<Point> = Vec::new();
+    let mut cracking: Option<Mark> = None;
+    let mut notes = Vec::new();
+
+    // stage 1: the precast unit alone, from the prestressed state to Mnc
+    let start = f
+        .initial(0.0, scale_n, scale_m, h)
+        .ok_or_else(|| fail(m, loc, "no equilibrium of the prestressed precast unit"))?;
+    let stage1 = if mnc > 0.0 { 10 } else { 0 };
+    pts.push(point(&start, true, 0.0));
+    let mut base = start;
+    for j in 1..=stage1 {
+        let mt = mnc * j as f64 / stage1 as f64;
+        let s = f
+            .initial(mt, scale_n, scale_m, h)
+            .ok_or_else(|| fail(m, loc, "no equilibrium of the precast unit under the non-composite moment"))?;
+        if cracking.is_none() && f.precast_strain(&s, y_bot_strip) >= eps_cr {
+            notes.push("The precast unit cracks under the non-composite moment, before the topping acts.".into());
+            let s_cr =
+                brent_initial(&f, mnc * (j - 1) as f64 / stage1 as f64, mt, eps_cr, y_bot_strip, scale_n, scale_m, h);
+            if let Some((mc, sc)) = s_cr {
+                cracking = Some(Mark { curvature: sc.k0, moment: mc * km });
+            }
+        }
+        pts.push(point(&s, true, mt));
+        base = s;
+    }
+
+    // stage 2: composite from the starting state; increments dk from 0
+    let solve_at = |dk: f64, guess: f64| f.equilibrium(&base, dk, guess, scale_n, h);
+    let end_fn = |s: &State| {
+        let crush = -f.top_strain(s, false) / opts.crushing_strain;
+        let rupture = match f.extreme.map(|i| f.steel[i].law) {
+            Some(SteelLaw::Strand(_)) => f.strand_strain(s, false) / opts.rupture_strain,
+            _ => 0.0,
+        };
+        (crush.max(rupture) - 1.0, crush >= rupture)
+    };
+    // find the end: widen dk until the crushing or rupture strain is reached
+    let mut lo = 0.0;
+    let mut lo_d0 = 0.0;
+    let mut hi = opts.crushing_strain / h;
+    let mut hi_state = None;
+    for _ in 0..80 {
+        match solve_at(hi, lo_d0) {
+            Some(s) if end_fn(&s).0 < 0.0 => {
+                lo = hi;
+                lo_d0 = s.d0;
+                hi *= 2.0;
+            }
+            Some(s) => {
+                hi_state = Some(s);
+                break;
+            }
+            None => break,
+        }
+    }
+    let Some(_) = hi_state else {
+        return Err(fail(m, loc, "no equilibrium was found up to the crushing or rupture strain"));
+    };
+    let g = |dk: f64| solve_at(dk, lo_d0).map_or(1.0, |s| end_fn(&s).0);
+    let (glo, ghi) = (g(lo), g(hi));
+    let dk_end =
+        if lo == 0.0 && glo >= 0.0 { 0.0 } else { brent(g, lo, hi, glo, ghi, 1e-14 * hi, 1e-10).unwrap_or(hi) };
+    let end_state = solve_at(dk_end, lo_d0).ok_or_else(|| fail(m, loc, "no equilibrium at the end of the curve"))?;
+    let ended_by = if end_fn(&end_state).1 { "concrete crushing" } else { "strand rupture" };
+
+    // points: denser at the start, where cracking happens
+    let n = opts.points.max(2);
+    let mut guess = 0.0;
+    let mut states: Vec<(f64, State)> = Vec::with_capacity(n + 4);
+    for j in 1..=n {
+        let s = j as f64 / n as f64;
+        let dk = dk_end * s * s;
+        let st = if j == n {
+            end_state
+        } else {
+            solve_at(dk, guess).ok_or_else(|| fail(m, loc, "no equilibrium at a step of the curve"))?
+        };
+        guess = st.d0;
+        states.push((dk, st));
+    }
+    // events between points: cracking (bottom strip reaches fr) and first strand yield
+    let mut insert = Vec::new();
+    let mut yielding = None;
+    let mut prev = (0.0, base);
+    for &(dk, st) in &states {
+        let crack = |s: &State| f.precast_strain(s, y_bot_strip) - eps_cr;
+        if cracking.is_none() && crack(&prev.1) < 0.0 && crack(&st) >= 0.0 {
+            let gc = |x: f64| solve_at(x, prev.1.d0).map_or(f64::NAN, |s| crack(&s));
+            if let Some(x) = brent(gc, prev.0, dk, crack(&prev.1), crack(&st), 1e-15 * dk_end, 0.0)
+                && let Some(s) = solve_at(x, prev.1.d0)
+            {
+                let mo = f.forces(&s, false).1;
+                cracking = Some(Mark { curvature: s.k0 + s.dk, moment: mo * km });
+                insert.push((x, s));
+            }
+        }
+        if let (None, Some(fpy), Some(i)) = (&yielding, fpy, f.extreme) {
+            let ys = |s: &State| f.steel[i].stress(f.strand_strain(s, false), false) - fpy;
+            if ys(&prev.1) < 0.0 && ys(&st) >= 0.0 {
+                let gy = |x: f64| solve_at(x, prev.1.d0).map_or(f64::NAN, |s| ys(&s));
+                if let Some(x) = brent(gy, prev.0, dk, ys(&prev.1), ys(&st), 1e-15 * dk_end, 0.0)
+                    && let Some(s) = solve_at(x, prev.1.d0)
+                {
+                    let mo = f.forces(&s, false).1;
+                    yielding = Some(Mark { curvature: s.k0 + s.dk, moment: mo * km });
+                    insert.push((x, s));
+                }
+            }
+        }
+        prev = (dk, st);
+    }
+    states.extend(insert);
+    states.sort_by(|a, b| a.0.total_cmp(&b.0));
+    for (_, s) in &states {
+        let mo = f.forces(s, false).1;
+        pts.push(point(s, false, mo));
+    }
+    let peak = pts
+        .iter()
+        .max_by(|a, b| a.moment.total_cmp(&b.moment))
+        .map(|p| Mark { curvature: p.curvature, moment: p.moment })
+        .unwrap_or(Mark { curvature: 0.0, moment: 0.0 });
+    let last = pts.last().copied().ok_or_else(|| fail(m, loc, "no points"))?;
+    let ultimate = Mark { curvature: last.curvature, moment: last.moment };
+    let ductility = yielding.map(|y| ultimate.curvature / y.curvature).filter(|d| d.is_finite() && *d > 0.0);
+    if yielding.is_none() {
+        notes.push("The extreme tension steel does not yield (0.9 fpu for strand) before the end of the curve: no yield point, no curvature ductility.".into());
+    }
+    if !m.bars.is_empty() {
+        notes.push("Bars start unstressed at the prestressed state (their share of the prestress shortening is neglected, as in the strength calculation).".into());
+    }
+    if loc.x.is_some() && p.m.strands.iter().zip(strands_at(&p, li, loc, &mut tr).iter()).any(|(s, a)| a.fse < s.fse) {
+        notes.push("Strand within its transfer length carries the reduced prestress here; the stress limits of 25.4.8.3 are not applied in the fibre analysis.".into());
+    }
+    Ok(CurveResult {
+        member: m.id.clone(),
+        location: loc.name.clone(),
+        concrete_model: model_name(m.concrete.curve),
+        strips: f.precast.y.len() + f.topping.as_ref().map_or(0, |t| t.0.y.len()),
+        points: pts,
+        cracking,
+        yielding,
+        peak,
+        ultimate,
+        ductility,
+        ended_by,
+        notes,
+    })
+}
+
+/// Cracking within stage 1: the moment on the precast unit at which the bottom strip
+/// reaches fr.
+#[allow(clippy::too_many_arguments)]
+fn brent_initial(
+    f: &Fibres,
+    m_lo: f64,
+    m_hi: f64,
+    eps_cr: f64,
+    y: f64,
+    sn: f64,
+    sm: f64,
+    h: f64,
+) -> Option<(f64, State)> {
+    let g = |mt: f64| f.initial(mt, sn, sm, h).map_or(f64::NAN, |s| f.precast_strain(&s, y) - eps_cr);
+    let mt = brent(g, m_lo, m_hi, g(m_lo), g(m_hi), 1e-12 * m_hi.abs().max(1.0), 0.0)?;
+    Some((mt, f.initial(mt, sn, sm, h)?))
+}
