@@ -282,6 +282,9 @@ impl Ctx {
     }
 }
 
+/// A member as validated on its own: the member, its problems and warnings.
+type Checked = (Option<Member>, Vec<Problem>, Vec<(Vec<Seg>, String)>);
+
 /// Validates a whole file.
 pub fn package(cx: &mut Ctx, f: &raw::File) -> Option<Package> {
     match f.format {
@@ -329,7 +332,7 @@ pub fn package(cx: &mut Ctx, f: &raw::File) -> Option<Package> {
     // and keep the problems in member order
     use rayon::prelude::*;
     let sys = cx.sys;
-    let checked: Vec<(Option<Member>, Vec<Problem>, Vec<(Vec<Seg>, String)>)> = f
+    let checked: Vec<Checked> = f
         .member
         .par_iter()
         .enumerate()
