@@ -336,6 +336,32 @@ impl Printer<'_> {
     }
 }
 
+/// Estimated width of a printed formula in characters of body text (fractions take the
+/// wider of their parts, subscripts count less). The templates use it to choose between
+/// one line and a stacked layout without measuring.
+pub fn width(e: &Expr, symbols: &[&Symbol], values: Option<&[String]>) -> f64 {
+    let w = |x: &Expr| width(x, symbols, values);
+    match e {
+        Expr::Var(i) => match values {
+            Some(v) => v.get(*i).map_or(1.0, |s| s.chars().count() as f64 + if s.starts_with('-') { 2.0 } else { 0.0 }),
+            None => symbols.get(*i).map_or(1.0, |s| 1.0 + 0.7 * (s.plain.chars().count() as f64 - 1.0).max(0.0)),
+        },
+        Expr::Num(v) => const_text(*v).chars().count() as f64,
+        Expr::Add(xs) | Expr::Mul(xs) => {
+            xs.iter().map(w).sum::<f64>()
+                + 2.0 * (xs.len().saturating_sub(1)) as f64
+                + if values.is_some() { 2.0 } else { 0.0 }
+        }
+        Expr::Sub(a, b) => w(a) + w(b) + 4.0,
+        Expr::Div(a, b) => w(a).max(w(b)) + 1.0,
+        Expr::Neg(a) => w(a) + 1.5,
+        Expr::Pow(a, b) => w(a) + 0.7 * w(b) + 1.0,
+        Expr::Sqrt(a) => w(a) + 2.0,
+        Expr::Min(xs) | Expr::Max(xs) => 5.0 + xs.iter().map(w).sum::<f64>() + 2.0 * xs.len() as f64,
+        Expr::Per(a, d) => w(a) + if values.is_some() { 4.0 + const_text(*d).chars().count() as f64 } else { 0.0 },
+    }
+}
+
 /// A constant as it is written in a formula: the shortest exact decimal; powers of ten
 /// from a million up as 10^k.
 pub fn const_text(v: f64) -> String {
@@ -494,6 +520,18 @@ impl Step {
         let sym = Printer { style, symbols: &syms, values: None }.print(e);
         let sub = Printer { style, symbols: &syms, values: Some(&vals) }.print(e);
         Some((sym, sub))
+    }
+
+    /// Estimated widths (in characters) of the symbol, the formula and the substituted
+    /// line as printed.
+    pub fn widths(&self) -> (f64, f64, f64) {
+        let syms: Vec<&Symbol> = self.inputs.iter().map(|i| &i.symbol).collect();
+        let vals: Vec<String> = self.inputs.iter().map(|i| substituted(i.value, i.unit)).collect();
+        let sym = 1.0 + 0.7 * (self.symbol.plain.chars().count() as f64 - 1.0).max(0.0);
+        match &self.formula {
+            Some(e) => (sym, width(e, &syms, None), width(e, &syms, Some(&vals))),
+            None => (sym, 0.0, 0.0),
+        }
     }
 
     /// One line of plain text: `fse = fpj - Δfp = 202.5 - 35 = 167.5 ksi  [20.3.2.5.1]`.

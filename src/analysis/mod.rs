@@ -979,7 +979,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
             .clause("ACI 318-19 9.5.1.1")
     });
     tr.rec(|| {
-        Step::new("checks", tag("ratio"), "Demand to capacity ratio", sy("M_u / (phi M_n)", "Mu/phiMn"))
+        Step::new("checks", tag("ratio"), "Demand to capacity ratio", sy("\"ratio\"", "ratio"))
             .formula(div(v(0), v(1)))
             .input(sy("M_u", "Mu"), mu, Unit::Moment)
             .input(sy("phi M_n", "phiMn"), phi_mn, Unit::Moment)

@@ -40,9 +40,18 @@ pub fn step_view(st: &Step, sys: System) -> Value {
         None => (None, None),
     };
     let short = st.id.split_once('.').filter(|(p, _)| p.starts_with('L')).map_or(st.id.as_str(), |(_, rest)| rest);
+    // one line, or stacked with the equals signs aligned, by the estimated width of the
+    // whole line (about 88 estimated characters fit the equation column)
+    let (ws, wf, wsub) = st.widths();
+    let result_w =
+        scaled(st.value, st.unit).chars().count() as f64 + unit_name(st.unit, sys).chars().count() as f64 + 6.0;
+    let total =
+        ws + if formula.is_some() { wf + 3.0 } else { 0.0 } + if subst.is_some() { wsub + 3.0 } else { 0.0 } + result_w;
+    let stack = total > 88.0;
     json!({
         "id": st.id,
         "short": short,
+        "stack": stack,
         "group": st.group,
         "title": st.title,
         "sym": st.symbol.math,
@@ -512,4 +521,54 @@ pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Va
         "summary": summary,
         "members": members,
     })
+}
+
+/// What the templates read (view.json): the payload less what no sheet prints (formula
+/// trees, step inputs, the parsed input model, the raw curve and iteration data). It is
+/// derived from the payload, so every number it holds is the payload's; keeping it
+/// small keeps the typesetting fast.
+pub fn view(payload: &Value) -> Value {
+    const STEP_KEYS: &[&str] = &[
+        "id",
+        "short",
+        "group",
+        "title",
+        "sym",
+        "formula",
+        "subst",
+        "shown",
+        "shown_math",
+        "unit",
+        "clause",
+        "note",
+        "stack",
+    ];
+    fn steps(v: &mut Value) {
+        if let Some(list) = v.get_mut("steps").and_then(Value::as_array_mut) {
+            for st in list {
+                if let Some(o) = st.as_object_mut() {
+                    o.retain(|k, _| STEP_KEYS.contains(&k.as_str()));
+                }
+            }
+        }
+    }
+    let mut v = payload.clone();
+    if let Some(members) = v.get_mut("members").and_then(Value::as_array_mut) {
+        for m in members {
+            steps(m);
+            if let Some(o) = m.as_object_mut() {
+                o.remove("input");
+                o.remove("curve_data");
+            }
+            if let Some(locs) = m.get_mut("locations").and_then(Value::as_array_mut) {
+                for l in locs {
+                    steps(l);
+                    if let Some(o) = l.as_object_mut() {
+                        o.remove("iterations");
+                    }
+                }
+            }
+        }
+    }
+    v
 }
