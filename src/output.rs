@@ -41,12 +41,15 @@ fn stage(target: &Path, bytes: &[u8]) -> Result<Temp> {
         Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
         _ => PathBuf::from("."),
     };
+    if !dir.is_dir() {
+        return Err(Error::io(&dir, "this folder does not exist; create it first or write elsewhere with -o"));
+    }
     let name = target.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
     let mut file = tempfile::Builder::new()
         .prefix(&format!(".{name}."))
         .suffix(".part")
         .tempfile_in(&dir)
-        .map_err(|e| Error::io(&dir, format!("cannot create a temporary file here: {e}")))?;
+        .map_err(|e| Error::io(&dir, format!("cannot write here ({})", e.kind())))?;
     pending().push(file.path().to_path_buf());
     file.write_all(bytes).and_then(|_| file.as_file().sync_all()).map_err(|e| Error::io(target, e))?;
     // a temporary file is private (0600); the output is an ordinary file

@@ -44,9 +44,9 @@ stem_spacing = 60.0
 stem_width_top = 7.75
 stem_width_bottom = 5.75
 
-[[member.strands]]         # one layer: 2 strands per stem
+[[member.strands]]         # one layer: 4 strands per stem
 height = 3.0               # from the bottom (or depth = ... from the top)
-count = 4
+count = 8
 diameter = 0.5             # area from the ASTM A416 table
 jacking = 0.75             # fraction of fpu
 losses = 35.0              # total prestress losses, ksi (no default: give fse or losses)

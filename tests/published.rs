@@ -207,3 +207,45 @@ fse = 160.0
     assert!(rel(l.mn, mn) < 1e-6);
     assert!(rel(l.strands[0].eps2.unwrap(), eps2) < 1e-9);
 }
+
+// A member given in US units and the same member hard-converted to SI give Mn within
+// 0.5 %. They are not identical because the SI forms of the code and handbook equations
+// are rounded conversions, not exact ones (ACI 318M-19; PCI Design Handbook): 4700 sqrt(f'c)
+// against 57,000 sqrt(f'c) psi (4733 exactly); beta1 breakpoints at 28 and 55 MPa against
+// 4 and 8 ksi (27.58 and 55.16 MPa); 1860 and 0.276 MPa in the strand curve against 270 and
+// 0.04 ksi (1861.6 and 0.2758); 196,500 against 28,500 ksi (196,501); and the metric strand
+// area 98.7 mm2 against 0.153 in2 (98.71 mm2).
+#[test]
+fn us_and_hard_converted_si_agree_within_half_a_percent() {
+    const IN: f64 = 25.4;
+    const KSI: f64 = 6.894_757;
+    const KIPFT: f64 = 1.355_818;
+    for (fc, fct, t) in [(6.0, None, None), (5.0, Some(4.0), Some(3.0)), (8.0, Some(5.0), Some(2.0))] {
+        let (b, h, bw, hf) = (48.0, 30.0, 8.0, 4.0);
+        let topping = |u: f64, s: f64| match (fct, t) {
+            (Some(f), Some(th)) => format!("[member.topping]\nthickness = {}\nfc = {}\n", th * u, f * s),
+            _ => String::new(),
+        };
+        let member = |u: f64, s: f64, m: f64, d: f64| {
+            format!(
+                "\n[[member]]\nid = \"T\"\nmu = {}\n[member.concrete]\nfc = {}\n[member.section]\nshape = \"tee\"\nflange_width = {}\nflange_thickness = {}\nweb_width = {}\nheight = {}\n{}[[member.strands]]\nheight = {}\ncount = 8\ndiameter = {d}\nfse = {}\n[[member.strands]]\nheight = {}\ncount = 4\ndiameter = {d}\nfse = {}\n",
+                300.0 * m,
+                fc * s,
+                b * u,
+                hf * u,
+                bw * u,
+                h * u,
+                topping(u, s),
+                2.5 * u,
+                165.0 * s,
+                4.5 * u,
+                165.0 * s
+            )
+        };
+        let us = parse(&format!("{HEAD_US}{}", member(1.0, 1.0, 1.0, 0.5)));
+        let si = parse(&format!("{HEAD_SI}{}", member(IN, KSI, KIPFT, 12.7)));
+        let a = analysis::analyze(&us, false).unwrap().members[0].locations[0].mn * KIPFT;
+        let b_ = analysis::analyze(&si, false).unwrap().members[0].locations[0].mn;
+        assert!(rel(a, b_) < 0.005, "f'c {fc}: US {a} kN-m vs SI {b_} kN-m ({:.3} %)", rel(a, b_) * 100.0);
+    }
+}

@@ -93,6 +93,24 @@ fn diagnostic(
 
 /// The unit system, read first: every other value depends on it.
 fn system_of(src: &Source, f: &schema::File) -> Result<System> {
+    if src.text.trim().is_empty() {
+        return Err(Error::Input(vec![diagnostic(
+            src,
+            None,
+            String::new(),
+            "the file is empty".into(),
+            Some("a package: format = 1, a [package] table and [[member]] tables (`strainsheet new FILE` writes a starter)".into()),
+        )]));
+    }
+    if f.package.is_none() {
+        return Err(Error::Input(vec![diagnostic(
+            src,
+            Some(0..0),
+            "package".into(),
+            "the [package] table is missing".into(),
+            Some("a [package] table with title, project, revision, date and units".into()),
+        )]));
+    }
     let units = f.package.as_ref().and_then(|p| p.units.as_deref());
     let path = [locate::Seg::Key("package"), locate::Seg::Key("units")];
     match units {
@@ -184,9 +202,17 @@ pub fn parse(src: &Source) -> Result<Package> {
         if let Some(first) = message.lines().next() {
             message = first.to_string();
         }
+        let allowed = if message.contains("recursion") {
+            message = format!("the file nests tables or arrays too deeply ({message})");
+            Some("tables and arrays nested as in a package (a few levels)".to_string())
+        } else if message.starts_with("unknown field") {
+            None // the message lists the keys allowed
+        } else {
+            Some("TOML as in the starter file that `strainsheet new` writes".to_string())
+        };
         // name the key for unknown-field errors and missing tables
         let key = e.span().map(|s| key_at(&src.text, s.start)).unwrap_or_default();
-        Error::Input(vec![diagnostic(src, e.span(), key, message, None)])
+        Error::Input(vec![diagnostic(src, e.span(), key, message, allowed)])
     })?;
     let sys = system_of(src, &file)?;
     let mut cx = validate::Ctx::new(sys);

@@ -212,8 +212,11 @@ impl Ctx {
         self.ranged(key, q, Dim::Length, 0.0, max, true)
     }
 
+    /// `v`, or a "missing" problem if it is absent, unless the key was present but
+    /// already refused (one message per problem).
     fn required<T>(&mut self, key: &'static str, v: Option<T>, what: &str) -> Option<T> {
-        if v.is_none() {
+        let here = self.at(key);
+        if v.is_none() && !self.problems.iter().any(|p| p.path == here) {
             self.problem(key, format!("{key} is missing"), Some(what.to_string()));
         }
         v

@@ -91,3 +91,16 @@ pub fn pages(pdf: &[u8]) -> usize {
 pub fn bin() -> std::process::Command {
     std::process::Command::new(env!("CARGO_BIN_EXE_strainsheet"))
 }
+
+/// A package of about `n` members: the members of a shipped example repeated with new ids.
+pub fn replicated(example_name: &str, n: usize) -> String {
+    let text = std::fs::read_to_string(example(example_name)).unwrap();
+    let first = text.find("\n[[member]]").unwrap();
+    let (head, members) = text.split_at(first);
+    let per = members.matches("\n[[member]]").count();
+    let mut out = head.to_string();
+    for k in 0..n.div_ceil(per) {
+        out.push_str(&members.replace("\nid = \"", &format!("\nid = \"R{k}-")));
+    }
+    out
+}

@@ -1,0 +1,114 @@
+//! The command line: exit statuses, the JSON contract, the starter file, trace formats.
+
+mod common;
+use common::*;
+
+#[test]
+fn check_exit_status_and_json_contract() {
+    for ex in ["parking-double-tee.toml", "inverted-tee-girder.toml", "hollow-core-plank.toml"] {
+        let o = bin().args(["check", "--json", example(ex).to_str().unwrap()]).output().unwrap();
+        assert_eq!(o.status.code(), Some(0), "{ex}: {}", String::from_utf8_lossy(&o.stderr));
+        let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+        assert_eq!(v["format"], 1);
+        for k in ["length", "area", "stress", "force", "moment"] {
+            assert!(v["units"][k].is_string(), "{ex}: units.{k}");
+        }
+        for m in v["members"].as_array().unwrap() {
+            for k in [
+                "id",
+                "c",
+                "a",
+                "beta1",
+                "eps_t",
+                "phi",
+                "mn",
+                "phi_mn",
+                "mu",
+                "ratio",
+                "control",
+                "mcr",
+                "min_reinforcement_ok",
+                "pass",
+                "strands",
+                "bars",
+                "locations",
+            ] {
+                assert!(m.get(k).is_some(), "{ex}: member has no {k}");
+            }
+            for s in m["strands"].as_array().unwrap() {
+                for k in ["depth", "eps", "stress", "force", "eps1", "eps2", "eps3"] {
+                    assert!(s.get(k).is_some(), "{ex}: strand has no {k}");
+                }
+            }
+            // the top-level fields are those of the governing (highest-ratio) location
+            let locs = m["locations"].as_array().unwrap();
+            let worst = locs.iter().map(|l| l["ratio"].as_f64().unwrap()).fold(0.0, f64::max);
+            assert_eq!(m["ratio"].as_f64().unwrap(), worst);
+            assert!(locs.iter().all(|l| l["name"].is_string() && l.get("x").is_some()));
+        }
+    }
+    // a failing member: exit 1, and the table says FAIL
+    let text = std::fs::read_to_string(example("hollow-core-plank.toml")).unwrap().replace("mu = 148.0", "mu = 900.0");
+    let dir = tempfile::tempdir().unwrap();
+    let f = dir.path().join("fail.toml");
+    std::fs::write(&f, text).unwrap();
+    let o = bin().arg("check").arg(&f).output().unwrap();
+    assert_eq!(o.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&o.stdout).contains("FAIL"));
+}
+
+#[test]
+fn new_writes_a_starter_that_checks_and_is_not_overwritten() {
+    let dir = tempfile::tempdir().unwrap();
+    for units in ["us", "si"] {
+        let f = dir.path().join(format!("start-{units}.toml"));
+        let o = bin().args(["new", f.to_str().unwrap(), "--units", units]).output().unwrap();
+        assert!(o.status.success());
+        let o = bin().arg("check").arg(&f).output().unwrap();
+        assert_eq!(
+            o.status.code(),
+            Some(0),
+            "{units}: {}{}",
+            String::from_utf8_lossy(&o.stdout),
+            String::from_utf8_lossy(&o.stderr)
+        );
+        std::fs::write(&f, "mine").unwrap();
+        let o = bin().args(["new", f.to_str().unwrap()]).output().unwrap();
+        assert_eq!(o.status.code(), Some(2));
+        assert_eq!(std::fs::read_to_string(&f).unwrap(), "mine");
+    }
+}
+
+#[test]
+fn trace_formats() {
+    let ex = example("parking-double-tee.toml");
+    let o = bin().args(["trace", ex.to_str().unwrap(), "--member", "DT-2"]).output().unwrap();
+    let t = String::from_utf8_lossy(&o.stdout);
+    assert!(t.contains("== member DT-2") && !t.contains("== member DT-1") && t.contains("iteration log"));
+    let o = bin().args(["trace", ex.to_str().unwrap(), "--format", "json"]).output().unwrap();
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    let steps = v["steps"].as_array().unwrap();
+    assert!(steps.len() > 100);
+    // each step with a formula carries it as a tree that evaluates to the recorded value
+    for s in steps.iter().filter(|s| !s["formula"].is_null()) {
+        let e: strainsheet::trace::Expr = serde_json::from_value(s["formula"].clone()).unwrap();
+        let x: Vec<f64> =
+            s["inputs"].as_array().unwrap().iter().map(|i| i["value"].as_f64().unwrap_or(f64::NAN)).collect();
+        let want = s["value"].as_f64().unwrap();
+        let scale = x.iter().fold(want.abs(), |m, v| m.max(v.abs()));
+        assert!((e.eval(&x) - want).abs() <= 1e-9 * scale.max(1e-12), "{}", s["id"]);
+    }
+    let o = bin().args(["trace", ex.to_str().unwrap(), "--format", "csv"]).output().unwrap();
+    let t = String::from_utf8_lossy(&o.stdout);
+    assert!(t.starts_with("member,location,id,title,symbol,formula,substituted,value,unit,clause\n"));
+    let o = bin().args(["trace", ex.to_str().unwrap(), "--member", "nope"]).output().unwrap();
+    assert_eq!(o.status.code(), Some(2));
+}
+
+#[test]
+fn usage_errors_exit_2() {
+    assert_eq!(bin().arg("frobnicate").output().unwrap().status.code(), Some(2));
+    assert_eq!(bin().args(["check", "/no/such/file.toml"]).output().unwrap().status.code(), Some(2));
+    let help = bin().args(["sign", "--help"]).output().unwrap();
+    assert!(String::from_utf8_lossy(&help.stdout).contains("not a professional seal"));
+}

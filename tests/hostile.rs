@@ -1,0 +1,283 @@
+//! Hostile and broken inputs: every one is refused with exit status 2 and one clear
+//! message naming the file, the line and column, the key and what is allowed; nothing
+//! panics and no output file is left behind.
+
+mod common;
+use common::*;
+use std::path::Path;
+
+const BASE: &str = r#"format = 1
+[package]
+title = "Hostile input test"
+project = "Test project"
+revision = "0"
+date = 2026-12-01
+units = "us"
+[[package.signoff]]
+role = "prepared"
+name = "P. Reparer"
+[[package.signoff]]
+role = "checked"
+name = "C. Hecker"
+
+[[member]]
+id = "R-1"
+length = 360.0
+mu = 120.0
+[member.concrete]
+fc = 6.0
+[member.section]
+shape = "rectangle"
+width = 12.0
+height = 24.0
+[[member.strands]]
+depth = 21.0
+count = 4
+diameter = 0.5
+fse = 160.0
+"#;
+
+/// The base with one line replaced (or text appended when `from` is empty).
+fn with(from: &str, to: &str) -> String {
+    if from.is_empty() {
+        return format!("{BASE}{to}");
+    }
+    assert!(BASE.contains(from), "the base has no {from:?}");
+    BASE.replacen(from, to, 1)
+}
+
+struct Case {
+    name: &'static str,
+    text: Vec<u8>,
+    /// Text the message must contain (usually the key).
+    key: &'static str,
+    /// Whether the message must give a line and column.
+    position: bool,
+}
+
+fn case(name: &'static str, text: String, key: &'static str) -> Case {
+    Case { name, text: text.into_bytes(), key, position: true }
+}
+
+fn cases() -> Vec<Case> {
+    let poly = |pts: &str| {
+        with("shape = \"rectangle\"\nwidth = 12.0\nheight = 24.0", &format!("shape = \"polygon\"\noutline = {pts}"))
+    };
+    let mut many = String::from("[");
+    for k in 0..2001 {
+        let a = k as f64 / 2001.0 * std::f64::consts::TAU;
+        many.push_str(&format!("[{:.6}, {:.6}],", 6.0 * a.cos(), 12.0 + 12.0 * a.sin()));
+    }
+    many.push(']');
+    let mut members = String::from(BASE);
+    for k in 0..10_001 {
+        members.push_str(&format!("[[member]]\nid = \"M{k}\"\nmu = 1.0\n[member.concrete]\nfc = 6.0\n[member.section]\nshape = \"rectangle\"\nwidth = 12.0\nheight = 24.0\n[[member.strands]]\ndepth = 21.0\ncount = 1\ndiameter = 0.5\nfse = 1.0\n"));
+    }
+    let hc = with(
+        "shape = \"rectangle\"\nwidth = 12.0\nheight = 24.0",
+        "shape = \"hollow_core\"\nwidth = 48.0\nheight = 24.0\nvoid_count = 4\nvoid_diameter = 8.0\nvoid_center_height = 12.0",
+    );
+    vec![
+        case("NaN", with("fc = 6.0", "fc = nan"), "fc"),
+        case("infinity", with("fc = 6.0", "fc = inf"), "fc"),
+        case("negative strength", with("fc = 6.0", "fc = -6.0"), "fc"),
+        case("zero strength", with("fc = 6.0", "fc = 0"), "fc"),
+        case("absurd strength", with("fc = 6.0", "fc = 40.0"), "fc"),
+        case("zero width", with("width = 12.0", "width = 0"), "width"),
+        case("negative height", with("height = 24.0", "height = -24.0"), "height"),
+        case("strand outside the concrete", with("depth = 21.0", "depth = 30.0"), "depth"),
+        case("strand on the edge", with("depth = 21.0", "depth = 23.9"), "depth"),
+        case("depth and height both", with("depth = 21.0", "depth = 21.0\nheight = 3.0"), "height"),
+        case("unknown key", with("fc = 6.0", "fc = 6.0\nfcc = 5.0"), "fcc"),
+        case("unknown table", with("", "[member.prestress]\nloss = 1\n"), "prestress"),
+        case("unknown shape", with("shape = \"rectangle\"", "shape = \"circle\""), "shape"),
+        case("unknown unit", with("fc = 6.0", "fc = \"6 kilo\""), "fc"),
+        case("unit of another dimension", with("width = 12.0", "width = \"12 ksi\""), "width"),
+        case("not a number", with("fc = 6.0", "fc = \"abc\""), "fc"),
+        case("self-intersecting polygon", poly("[[0.0, 0.0], [12.0, 24.0], [12.0, 0.0], [0.0, 24.0]]"), "outline"),
+        case("zero-area polygon", poly("[[0.0, 0.0], [6.0, 12.0], [12.0, 24.0]]"), "outline"),
+        case(
+            "hole outside the outline",
+            poly(
+                "[[-6.0, 0.0], [6.0, 0.0], [6.0, 24.0], [-6.0, 24.0]]\nholes = [[[20.0, 2.0], [22.0, 2.0], [22.0, 4.0]]]",
+            ),
+            "holes",
+        ),
+        case(
+            "overlapping holes",
+            poly(
+                "[[-6.0, 0.0], [6.0, 0.0], [6.0, 24.0], [-6.0, 24.0]]\nholes = [[[-2.0, 10.0], [2.0, 10.0], [2.0, 14.0], [-2.0, 14.0]], [[-1.0, 11.0], [3.0, 11.0], [3.0, 15.0], [-1.0, 15.0]]]",
+            ),
+            "holes",
+        ),
+        case("too many vertices", poly(&many), "outline"),
+        case("duplicate member ids", format!("{BASE}{}", &BASE[BASE.find("[[member]]").unwrap()..]), "used twice"),
+        case("fse over fpu", with("fse = 160.0", "fse = 280.0"), "fse"),
+        case("negative fse", with("fse = 160.0", "fse = -1.0"), "fse"),
+        case("absurd count", with("count = 4", "count = 100000"), "count"),
+        case("zero count", with("count = 4", "count = 0"), "count"),
+        case("fractional count", with("count = 4", "count = 6.5"), "count"),
+        Case { name: "empty file", text: Vec::new(), key: "format", position: false },
+        Case { name: "binary file", text: b"\x00\x01\x02PDF\xff\xfe".to_vec(), key: "NUL", position: true },
+        Case { name: "not UTF-8", text: b"format = 1\ntitle = \"\xff\xfe\"\n".to_vec(), key: "UTF-8", position: true },
+        Case { name: "a 50 MB file", text: vec![b'#'; 50 * 1024 * 1024], key: "MiB", position: false },
+        case(
+            "deeply nested arrays",
+            format!("format = 1\nx = {}{}\n", "[".repeat(100_000), "]".repeat(100_000)),
+            "recurse",
+        ),
+        Case {
+            name: "deeply nested tables",
+            text: format!("format = 1\n{} = 1\n", vec!["a"; 20_000].join(".")).into_bytes(),
+            key: "deeply",
+            position: false,
+        },
+        case(
+            "deeply nested inline tables",
+            format!("format = 1\nx = {}{}\n", "{ a = ".repeat(50_000), "}".repeat(50_000)),
+            "recurse",
+        ),
+        case("no package table", BASE.replace("[package]", "[pakage]"), "pakage"),
+        case("unknown unit system", with("units = \"us\"", "units = \"imperial\""), "units"),
+        case("future format", with("format = 1", "format = 2"), "format"),
+        case("impossible date", with("date = 2026-12-01", "date = 2026-13-45"), "date"),
+        case("date with a time", with("date = 2026-12-01", "date = 2026-12-01T10:00:00"), "date"),
+        case("checker is the preparer", with("name = \"C. Hecker\"", "name = \"p. reparer\""), "checker"),
+        case(
+            "sign-off dates out of order",
+            with("name = \"C. Hecker\"", "name = \"C. Hecker\"\ndate = 2026-11-01"),
+            "prepared",
+        ),
+        case("no checker", with("role = \"checked\"", "role = \"approved\""), "checked"),
+        case("harped without harp point", with("depth = 21.0", "depth_end = 12.0\ndepth_harp = 21.0"), "harp_x"),
+        case(
+            "power formula for Grade 250",
+            with("fse = 160.0", "fse = 150.0\nfpu = 250.0\nmodel = \"power\""),
+            "model",
+        ),
+        case("a grade no model fits", with("fse = 160.0", "fse = 160.0\nfpu = 240.0"), "fpu"),
+        case("non-standard strand without area", with("diameter = 0.5", "diameter = 0.55"), "diameter"),
+        case("unknown bar size", with("", "[[member.bars]]\ndepth = 21.0\ncount = 2\nsize = \"#12\"\n"), "size"),
+        case("location beyond the span", with("", "[[member.location]]\nname = \"far\"\nx = 400.0\n"), "x"),
+        case("negative location", with("", "[[member.location]]\nname = \"neg\"\nx = -1.0\n"), "x"),
+        case(
+            "duplicate location names",
+            with("", "[[member.location]]\nname = \"a\"\nx = 10.0\n[[member.location]]\nname = \"a\"\nx = 20.0\n"),
+            "used twice",
+        ),
+        case("zero topping", with("", "[member.topping]\nthickness = 0.0\nfc = 4.0\n"), "thickness"),
+        case("lambda above 1", with("fc = 6.0", "fc = 6.0\nlambda = 1.5"), "lambda"),
+        case(
+            "revision history out of step",
+            with(
+                "\n[[member]]",
+                "[[package.revisions]]\nrev = \"A\"\ndate = 2026-11-01\ndescription = \"x\"\n\n[[member]]",
+            ),
+            "revision",
+        ),
+        case("control character", with("id = \"R-1\"", "id = \"R-1\"\ndescription = \"bell \\u0007\""), "description"),
+        case("no strands", BASE[..BASE.find("[[member.strands]]").unwrap()].to_string(), "strands"),
+        case("no demand", with("mu = 120.0\n", ""), "mu"),
+        case("jacking above the range", with("fse = 160.0", "jacking = 0.95\nlosses = 30.0"), "jacking"),
+        case("losses above the jacking stress", with("fse = 160.0", "losses = 300.0"), "losses"),
+        case(
+            "strands that do not fit between the voids",
+            hc.replace("depth = 21.0", "height = 12.0").replace("\ncount = 4", "\ncount = 40"),
+            "height",
+        ),
+        case("unknown paper", with("units = \"us\"", "units = \"us\"\npaper = \"legal\""), "paper"),
+        case("unknown code basis", with("units = \"us\"", "units = \"us\"\nbasis = \"ACI 318-14\""), "basis"),
+        case(
+            "debonding beyond midspan",
+            with("fse = 160.0", "fse = 160.0\ndebonded_length = 200.0"),
+            "debonded_length",
+        ),
+        case("overlong id", with("id = \"R-1\"", &format!("id = \"{}\"", "x".repeat(200))), "id"),
+        case("too many members", members, "members"),
+        case("syntax error", with("fc = 6.0", "fc = = 6.0"), "fc"),
+        case("string where a table belongs", with("[member.concrete]\nfc = 6.0", "concrete = \"strong\""), "concrete"),
+    ]
+}
+
+fn run(args: &[&str], file: &Path) -> (Option<i32>, String) {
+    let out = bin().args(args).arg(file).output().unwrap();
+    (out.status.code(), String::from_utf8_lossy(&out.stderr).into_owned())
+}
+
+#[test]
+fn base_is_valid() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = dir.path().join("test.toml");
+    std::fs::write(&f, BASE).unwrap();
+    let (code, err) = run(&["check"], &f);
+    assert_eq!(code, Some(0), "{err}");
+}
+
+#[test]
+fn hostile_inputs_are_refused_clearly() {
+    let cases = cases();
+    assert!(cases.len() >= 40);
+    let dir = tempfile::tempdir().unwrap();
+    let mut failures = Vec::new();
+    for c in &cases {
+        let f = dir.path().join("test.toml");
+        std::fs::write(&f, &c.text).unwrap();
+        for cmd in [vec!["check"], vec!["trace"], vec!["check", "--json"]] {
+            let (code, err) = run(&cmd, &f);
+            let errors = err.lines().filter(|l| l.starts_with("error:")).count();
+            let pos_ok = !c.position
+                || err
+                    .split("test.toml:")
+                    .nth(1)
+                    .is_some_and(|r| r.chars().next().is_some_and(|ch| ch.is_ascii_digit()));
+            if code != Some(2)
+                || err.contains("panicked")
+                || !err.contains(c.key)
+                || errors != 1
+                || !pos_ok
+                || !err.contains("test.toml")
+            {
+                failures.push(format!(
+                    "{} ({}): exit {code:?}, {errors} messages\n{}",
+                    c.name,
+                    cmd.join(" "),
+                    err.chars().take(600).collect::<String>()
+                ));
+            }
+        }
+    }
+    assert!(failures.is_empty(), "{} failures:\n\n{}", failures.len(), failures.join("\n\n"));
+}
+
+#[test]
+fn refused_inputs_leave_no_files() {
+    let dir = tempfile::tempdir().unwrap();
+    for c in cases().iter().filter(|c| c.text.len() < 1_000_000).take(20) {
+        let f = dir.path().join("test.toml");
+        std::fs::write(&f, &c.text).unwrap();
+        let out = dir.path().join("out.pdf");
+        let o = bin().args(["report", f.to_str().unwrap(), "-o", out.to_str().unwrap()]).output().unwrap();
+        assert_eq!(o.status.code(), Some(2), "{}", c.name);
+        let left: Vec<_> = std::fs::read_dir(dir.path())
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .filter(|n| n != "test.toml")
+            .collect();
+        assert!(left.is_empty(), "{}: left {left:?}", c.name);
+    }
+}
+
+#[test]
+fn errors_point_at_the_offending_value() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = dir.path().join("test.toml");
+    std::fs::write(&f, with("fse = 160.0", "fse = 280.0")).unwrap();
+    let (_, err) = run(&["check"], &f);
+    let line = BASE.lines().position(|l| l == "fse = 160.0").unwrap() + 1;
+    assert!(
+        err.contains(&format!("test.toml:{line}:7: member[1].strands[1].fse: fse = 280 ksi is out of range")),
+        "{err}"
+    );
+    assert!(err.contains("allowed: 0 <= fse < fpu = 270 ksi"), "{err}");
+    assert!(err.contains("^^^^^"), "{err}");
+}
