@@ -141,6 +141,37 @@ enum Cmd {
     },
 }
 
+/// A spinner with the current phase on stderr, shown only when stderr is a terminal.
+struct Progress(Option<indicatif::ProgressBar>);
+
+impl Progress {
+    fn new() -> Progress {
+        use std::io::IsTerminal;
+        if !std::io::stderr().is_terminal() {
+            return Progress(None);
+        }
+        let pb = indicatif::ProgressBar::new_spinner();
+        pb.enable_steady_tick(std::time::Duration::from_millis(120));
+        Progress(Some(pb))
+    }
+    fn phase(&self, msg: impl Into<String>) {
+        if let Some(pb) = &self.0 {
+            pb.set_message(msg.into());
+        }
+    }
+    fn done(&self) {
+        if let Some(pb) = &self.0 {
+            pb.finish_and_clear();
+        }
+    }
+}
+
+impl Drop for Progress {
+    fn drop(&mut self) {
+        self.done();
+    }
+}
+
 /// Writes to stdout through one buffer (stdout is line-buffered, which is slow for
 /// large outputs); a closed pipe is not an error.
 fn write_stdout(f: impl FnOnce(&mut dyn std::io::Write) -> std::io::Result<()>) -> Result<(), Error> {
@@ -188,14 +219,20 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 Some(dir) => report::Templates::from_dir(&dir)?,
                 None => report::Templates::builtin(),
             };
+            let progress = Progress::new();
+            progress.phase("reading and checking the input");
             let (src, pkg) = input::load(&file)?;
+            progress.phase(format!("analysing {} members", pkg.members.len()));
             let a = analysis::analyze_full(&pkg)?;
+            progress.phase(format!("typesetting the package of {} members", pkg.members.len()));
             let r = report::render(&pkg, &src, &a, &templates)?;
+            progress.phase("writing");
             let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
             let sidecar = seal::sidecar(&r.pdf, &name);
             let mut side_path = out.clone().into_os_string();
             side_path.push(".sha256");
             output::write_all(&[(out.clone(), r.pdf), (PathBuf::from(side_path), sidecar.into_bytes())], overwrite)?;
+            progress.done();
             for w in &pkg.warnings {
                 eprintln!("warning: {}: {}: {}", w.at, w.key, w.message);
             }

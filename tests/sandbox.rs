@@ -113,7 +113,7 @@ fn a_block_through_topping_flange_and_web() {
     let pkg = parse(&text);
     let r = strainsheet::analysis::analyze(&pkg, true).unwrap();
     let l = &r.members[0].locations[0];
-    assert_eq!(l.zone, "web", "a = {}", l.a);
+    assert_eq!(l.zone, "topping, flange and web", "a = {}", l.a);
     assert!(l.closure < 1e-9);
     // both block options are recorded, and the conservative default is the weaker
     let other = l.other_block.as_ref().expect("the other block option is shown");

@@ -438,7 +438,13 @@ pub(super) fn approximate(
         if not_developed {
             return Err("strand is not fully developed at this location".to_string());
         }
-        for (i, (s, a)) in m.strands.iter().zip(at).enumerate() {
+        // untensioned strand in the compression zone is not prestressing steel: it is
+        // left out like compression reinforcement (rho' = 0)
+        let counted: Vec<bool> = m.strands.iter().zip(at).map(|(s, a)| !(s.fse == 0.0 && a.d <= st.c)).collect();
+        for (i, ((s, a), keep)) in m.strands.iter().zip(at).zip(&counted).enumerate() {
+            if !keep {
+                continue;
+            }
             if !a.active {
                 return Err(format!("strand layer {} is debonded here", i + 1));
             }
@@ -452,13 +458,14 @@ pub(super) fn approximate(
                 ));
             }
         }
-        let fpu = m.strands[0].fpu;
-        if m.strands.iter().any(|s| s.fpu != fpu) {
+        let mut grades = m.strands.iter().zip(&counted).filter(|(_, k)| **k).map(|(s, _)| s.fpu);
+        let fpu = grades.next().ok_or_else(|| "there is no tensioned strand".to_string())?;
+        if grades.any(|g| g != fpu) {
             return Err("the strand layers are of different grades".to_string());
         }
-        Ok(fpu)
+        Ok((fpu, counted))
     })();
-    let fpu = match result {
+    let (fpu, counted) = match result {
         Ok(f) => f,
         Err(r) => {
             tr.rec(|| {
@@ -474,7 +481,10 @@ pub(super) fn approximate(
             return na(r);
         }
     };
-    let ratio = m.strands.iter().map(|s| s.fpy / s.fpu).fold(f64::INFINITY, f64::min);
+    let layers: Vec<(&StrandLayer, &StrandAt)> =
+        m.strands.iter().zip(at).zip(&counted).filter(|(_, k)| **k).map(|(x, _)| x).collect();
+    let left_out = counted.iter().filter(|k| !**k).count();
+    let ratio = layers.iter().map(|(s, _)| s.fpy / s.fpu).fold(f64::INFINITY, f64::min);
     let gamma_p = if ratio >= 0.9 {
         0.28
     } else if ratio >= 0.85 {
@@ -482,8 +492,8 @@ pub(super) fn approximate(
     } else {
         0.55
     };
-    let aps: f64 = m.strands.iter().map(|s| s.total_area()).sum();
-    let dp = m.strands.iter().zip(at).map(|(s, a)| s.total_area() * a.d).sum::<f64>() / aps;
+    let aps: f64 = layers.iter().map(|(s, _)| s.total_area()).sum();
+    let dp = layers.iter().map(|(s, a)| s.total_area() * a.d).sum::<f64>() / aps;
     // tension bars: below mid-depth; compression bars are not counted (rho' = 0, always
     // permitted and conservative)
     let h = m.total_height();
@@ -527,10 +537,11 @@ pub(super) fn approximate(
             }
             let formula = mul(vec![v(0), sub(n(1.0), mul(vec![div(v(1), v(2)), if bracket.len() == 1 { bracket.remove(0) } else { add(bracket) }]))]);
             stp.formula(formula).result(fps, Unit::Stress).note(format!(
-                "γp = {gamma_p} for fpy/fpu ≥ {}; ρp = Aps/(b dp) with b = {} and Aps = {}; compression steel not counted (ρ' = 0)",
+                "γp = {gamma_p} for fpy/fpu ≥ {}; ρp = Aps/(b dp) with b = {} and Aps = {}; compression steel not counted (ρ' = 0){}",
                 if gamma_p == 0.28 { "0.90" } else if gamma_p == 0.40 { "0.85" } else { "0.80" },
                 show(width),
-                show(apsw)
+                show(apsw),
+                if left_out > 0 { ", nor untensioned strand in the compression zone" } else { "" }
             ))
         });
     };

@@ -702,6 +702,17 @@ fn zone_of(p: &Prepared, a: f64) -> &'static str {
         "whole section"
     } else if m.topping.is_some() && a <= p.t {
         "topping"
+    } else if m.topping.is_some() {
+        match m.shape.zone(a - p.t) {
+            "flange" => "topping and flange",
+            "web" => "topping, flange and web",
+            "top flange" => "topping and top flange",
+            "top flange taper" => "topping, top flange and taper",
+            "void region" => "topping and void region",
+            "stem" => "topping and stem",
+            "ledge" => "topping, stem and ledge",
+            _ => "topping and precast unit",
+        }
     } else {
         m.shape.zone(a - p.t)
     }
@@ -1146,7 +1157,10 @@ fn record_solution(
         if a < p.beta1 * c {
             st_.result(a, Unit::Length).note("beta1 c exceeds the section depth: the whole section is in compression")
         } else {
-            st_.formula(mul(vec![v(0), v(1)])).result(a, Unit::Length).clause("ACI 318-19 22.2.2.4.1")
+            st_.formula(mul(vec![v(0), v(1)]))
+                .result(a, Unit::Length)
+                .clause("ACI 318-19 22.2.2.4.1")
+                .note(format!("the compression block lies in the {}", zone_of(p, a)))
         }
     });
     // concrete parts
