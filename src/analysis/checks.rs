@@ -382,10 +382,11 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
 }
 
 pub(super) fn minimum(p: &Prepared, li: usize, mcr: f64, phi_mn: f64, mu: f64, tr: &mut Trace) -> MinReinforcement {
+    let code = super::code(p.sys);
     let (clause, waiver_clause) = if is_slab(p.m) {
-        ("ACI 318-19 7.6.2.1", "ACI 318-19 7.6.2.2")
+        (format!("{code} 7.6.2.1"), format!("{code} 7.6.2.2"))
     } else {
-        ("ACI 318-19 9.6.2.1", "ACI 318-19 9.6.2.2")
+        (format!("{code} 9.6.2.1"), format!("{code} 9.6.2.2"))
     };
     let required = 1.2 * mcr;
     let ok = phi_mn >= required;
@@ -395,7 +396,7 @@ pub(super) fn minimum(p: &Prepared, li: usize, mcr: f64, phi_mn: f64, mu: f64, t
             .formula(mul(vec![n(1.2), v(0)]))
             .input(sy("M_\"cr\"", "Mcr"), mcr, Unit::Moment)
             .result(required, Unit::Moment)
-            .clause(clause)
+            .clause(clause.clone())
             .note(if ok {
                 format!("φMn = {} ≥ 1.2 Mcr: satisfied", show(phi_mn))
             } else if waiver_flexure {
@@ -472,7 +473,7 @@ pub(super) fn approximate(
                 Step::new(
                     "approximate",
                     tag(li, "approx"),
-                    "Approximate fps of ACI 318-19 20.3.2.3.1",
+                    "Approximate strand stress of the code (20.3.2.3.1)",
                     sy("f_\"ps,approx\"", "fps,approx"),
                 )
                 .result(f64::NAN, Unit::Stress)

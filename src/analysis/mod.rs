@@ -152,12 +152,12 @@ pub struct Development {
 
 #[derive(Debug, Clone, Serialize)]
 pub struct MinReinforcement {
-    pub clause: &'static str,
+    pub clause: String,
     pub required: f64,
     pub ok: bool,
     /// phi Mn >= 2 Mu: the flexural half of the waiver clause holds.
     pub waiver_flexure: bool,
-    pub waiver_clause: &'static str,
+    pub waiver_clause: String,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -278,6 +278,29 @@ pub fn analyze_full(pkg: &Package) -> Result<Analysis> {
         }
     });
     Ok(a)
+}
+
+/// The code edition as cited for a unit system: ACI 318M-19 for SI packages.
+pub fn code(sys: System) -> &'static str {
+    match sys {
+        System::Us => "ACI 318-19",
+        System::Si => "ACI 318M-19",
+    }
+}
+
+/// Steps are written citing ACI 318-19; an SI package cites ACI 318M-19, the same
+/// clauses in SI units.
+fn cite_for(sys: System, steps: &mut [Step]) {
+    if sys == System::Si {
+        for st in steps {
+            if let Some(c) = &mut st.clause {
+                *c = c.replace("ACI 318-19", "ACI 318M-19");
+            }
+            if let Some(n) = &mut st.note {
+                *n = n.replace("ACI 318-19", "ACI 318M-19");
+            }
+        }
+    }
 }
 
 // ---- symbols ---------------------------------------------------------------------
@@ -616,13 +639,15 @@ pub fn analyze_member(m: &Member, sys: System, trace: bool) -> Result<MemberResu
         beta1: p.beta1,
         geometry,
     };
+    let mut steps = tr.steps;
+    cite_for(sys, &mut steps);
     Ok(MemberResult {
         id: m.id.clone(),
         section,
         locations,
         governing,
         pass,
-        trace: tr.steps,
+        trace: steps,
         curve: None,
         curve_error: None,
     })
@@ -911,7 +936,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
             model = model_for(p, parts_for(p, block), &at, &caps);
             log.clear();
             st = model.solve(Some(&mut log)).map_err(|e| solve_err(p, &loc.name, e))?;
-            notes.push("Strands are not fully developed here: their stress is limited to fpx (ACI 318-19 25.4.8.3) and the equilibrium is solved with that limit.".into());
+            notes.push(format!("Strands are not fully developed here: their stress is limited to fpx ({} 25.4.8.3) and the equilibrium is solved with that limit.", code(sys)));
         }
     }
     let closure = (st.residual / st.cc).abs();
@@ -1005,7 +1030,10 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
         checks::approximate(p, li, &st, &at, loc.x.is_some() && caps.iter().any(|c| c.is_finite()), mn, &mut tr);
 
     // strand elongation (ASTM A416 minimum elongation 3.5 %)
-    let max_strand_strain = strength.strands.iter().filter(|l| l.active).map(|l| l.eps).fold(0.0, f64::max);
+    // strand whose stress is limited by its development cannot be strained to rupture
+    // there (it would slip first): only developed strand counts
+    let max_strand_strain =
+        strength.strands.iter().filter(|l| l.active && l.cap.is_none()).map(|l| l.eps).fold(0.0, f64::max);
     let rupture_risk = max_strand_strain > 0.035;
     let min_ok = minr.ok || minr.waiver_flexure;
     let pass = strength_ok && min_ok;
@@ -1044,8 +1072,8 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
     };
     if rupture_risk {
         conclusion.push_str(&format!(
-            " Caution: the total strand strain {} exceeds the 3.5 % minimum elongation of ASTM A416, so the strand may rupture before the concrete reaches 0.003; review the strand's elongation capacity.",
-            crate::trace::show(max_strand_strain)
+            " Caution: the total strand strain {} % exceeds the 3.5 % minimum elongation of ASTM A416, so the strand may rupture before the concrete reaches 0.003; review the strand's elongation capacity.",
+            crate::trace::show(max_strand_strain * 100.0)
         ));
     }
     if pass && !minr.ok && minr.waiver_flexure {
@@ -1073,6 +1101,8 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
         .into_iter()
         .map(|t| Trial { cc: t.cc * cv.kf, t: t.t * cv.kf, residual: t.residual * cv.kf, ..t })
         .collect();
+    let mut steps = tr.steps;
+    cite_for(sys, &mut steps);
     Ok(LocationResult {
         name: loc.name.clone(),
         x: loc.x,
@@ -1112,7 +1142,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
         conclusion,
         notes,
         block_rings,
-        trace: tr.steps,
+        trace: steps,
     })
 }
 

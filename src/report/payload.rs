@@ -63,10 +63,7 @@ pub fn step_view(st: &Step, sys: System) -> Value {
         "shown_math": shown_math(st.value, st.unit),
         "scale": scale(st.unit).1,
         "unit": unit_name(st.unit, sys),
-        "clause": st.clause.as_ref().map(|c| match sys {
-            System::Si => c.replace("ACI 318-19", "ACI 318M-19"),
-            System::Us => c.clone(),
-        }),
+        "clause": st.clause,
         "note": st.note,
         "tree": st.formula,
         "inputs": st.inputs.iter().map(|i| json!({
