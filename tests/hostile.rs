@@ -6,44 +6,20 @@ mod common;
 use common::*;
 use std::path::Path;
 
-const BASE: &str = r#"format = 1
-[package]
-title = "Hostile input test"
-project = "Test project"
-revision = "0"
-date = 2026-12-01
-units = "us"
-[[package.signoff]]
-role = "prepared"
-name = "P. Reparer"
-[[package.signoff]]
-role = "checked"
-name = "C. Hecker"
-
-[[member]]
-id = "R-1"
-length = 360.0
-mu = 120.0
-[member.concrete]
-fc = 6.0
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
-depth = 21.0
-count = 4
-diameter = 0.5
-fse = 160.0
-"#;
+/// A valid package: the common head and one rectangular member.
+static BASE_TEXT: std::sync::LazyLock<String> = std::sync::LazyLock::new(|| {
+    format!(
+        "{HEAD_US}\n[[member]]\nid = \"R-1\"\nlength = 360.0\nmu = 120.0\n[member.concrete]\nfc = 6.0\n[member.section]\nshape = \"rectangle\"\nwidth = 12.0\nheight = 24.0\n[[member.strands]]\ndepth = 21.0\ncount = 4\ndiameter = 0.5\nfse = 160.0\n"
+    )
+});
 
 /// The base with one line replaced (or text appended when `from` is empty).
 fn with(from: &str, to: &str) -> String {
     if from.is_empty() {
-        return format!("{BASE}{to}");
+        return format!("{}{to}", BASE_TEXT.as_str());
     }
-    assert!(BASE.contains(from), "the base has no {from:?}");
-    BASE.replacen(from, to, 1)
+    assert!(BASE_TEXT.contains(from), "the base has no {from:?}");
+    BASE_TEXT.replacen(from, to, 1)
 }
 
 struct Case {
@@ -69,7 +45,7 @@ fn cases() -> Vec<Case> {
         many.push_str(&format!("[{:.6}, {:.6}],", 6.0 * a.cos(), 12.0 + 12.0 * a.sin()));
     }
     many.push(']');
-    let mut members = String::from(BASE);
+    let mut members = BASE_TEXT.clone();
     for k in 0..10_001 {
         members.push_str(&format!("[[member]]\nid = \"M{k}\"\nmu = 1.0\n[member.concrete]\nfc = 6.0\n[member.section]\nshape = \"rectangle\"\nwidth = 12.0\nheight = 24.0\n[[member.strands]]\ndepth = 21.0\ncount = 1\ndiameter = 0.5\nfse = 1.0\n"));
     }
@@ -111,7 +87,11 @@ fn cases() -> Vec<Case> {
             "holes",
         ),
         case("too many vertices", poly(&many), "outline"),
-        case("duplicate member ids", format!("{BASE}{}", &BASE[BASE.find("[[member]]").unwrap()..]), "used twice"),
+        case(
+            "duplicate member ids",
+            format!("{}{}", BASE_TEXT.as_str(), &BASE_TEXT[BASE_TEXT.find("[[member]]").unwrap()..]),
+            "used twice",
+        ),
         case("fse over fpu", with("fse = 160.0", "fse = 280.0"), "fse"),
         case("negative fse", with("fse = 160.0", "fse = -1.0"), "fse"),
         case("absurd count", with("count = 4", "count = 100000"), "count"),
@@ -137,7 +117,7 @@ fn cases() -> Vec<Case> {
             format!("format = 1\nx = {}{}\n", "{ a = ".repeat(50_000), "}".repeat(50_000)),
             "recurse",
         ),
-        case("no package table", BASE.replace("[package]", "[pakage]"), "pakage"),
+        case("no package table", BASE_TEXT.replace("[package]", "[pakage]"), "pakage"),
         case("unknown unit system", with("units = \"us\"", "units = \"imperial\""), "units"),
         case("future format", with("format = 1", "format = 2"), "format"),
         case("impossible date", with("date = 2026-12-01", "date = 2026-13-45"), "date"),
@@ -176,7 +156,7 @@ fn cases() -> Vec<Case> {
             "revision",
         ),
         case("control character", with("id = \"R-1\"", "id = \"R-1\"\ndescription = \"bell \\u0007\""), "description"),
-        case("no strands", BASE[..BASE.find("[[member.strands]]").unwrap()].to_string(), "strands"),
+        case("no strands", BASE_TEXT[..BASE_TEXT.find("[[member.strands]]").unwrap()].to_string(), "strands"),
         case("no demand", with("mu = 120.0\n", ""), "mu"),
         case("jacking above the range", with("fse = 160.0", "jacking = 0.95\nlosses = 30.0"), "jacking"),
         case("losses above the jacking stress", with("fse = 160.0", "losses = 300.0"), "losses"),
@@ -208,7 +188,7 @@ fn run(args: &[&str], file: &Path) -> (Option<i32>, String) {
 fn base_is_valid() {
     let dir = tempfile::tempdir().unwrap();
     let f = dir.path().join("test.toml");
-    std::fs::write(&f, BASE).unwrap();
+    std::fs::write(&f, BASE_TEXT.as_str()).unwrap();
     let (code, err) = run(&["check"], &f);
     assert_eq!(code, Some(0), "{err}");
 }
@@ -273,7 +253,7 @@ fn errors_point_at_the_offending_value() {
     let f = dir.path().join("test.toml");
     std::fs::write(&f, with("fse = 160.0", "fse = 280.0")).unwrap();
     let (_, err) = run(&["check"], &f);
-    let line = BASE.lines().position(|l| l == "fse = 160.0").unwrap() + 1;
+    let line = BASE_TEXT.lines().position(|l| l == "fse = 160.0").unwrap() + 1;
     assert!(
         err.contains(&format!("test.toml:{line}:7: member[1].strands[1].fse: fse = 280 ksi is out of range")),
         "{err}"

@@ -6,6 +6,14 @@ mod common;
 use common::*;
 use strainsheet::analysis::{self, checks::phi_of};
 
+/// A 12 x 24 in beam with four 1/2 in strands at d = 21 in, prestressed as `prestress`
+/// says ("fse = 160.0" or "losses = 30.0").
+fn rect_beam(fc: f64, prestress: &str) -> String {
+    format!(
+        "{HEAD_US}\n[[member]]\nid = \"B\"\nmu = 100.0\n[member.concrete]\nfc = {fc}\n[member.section]\nshape = \"rectangle\"\nwidth = 12.0\nheight = 24.0\n[[member.strands]]\ndepth = 21.0\ncount = 4\ndiameter = 0.5\n{prestress}\n"
+    )
+}
+
 fn rel(a: f64, b: f64) -> f64 {
     (a - b).abs() / b.abs()
 }
@@ -31,25 +39,7 @@ fn phi_table_21_2_2() {
 // Common practice: jacking at 0.75 fpu is 202.5 ksi for 270 ksi strand.
 #[test]
 fn jacking_stress_of_grade_270() {
-    let pkg = parse(&format!(
-        "{HEAD_US}{}",
-        r#"
-[[member]]
-id = "B"
-mu = 100.0
-[member.concrete]
-fc = 6.0
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
-depth = 21.0
-count = 4
-diameter = 0.5
-losses = 30.0
-"#
-    ));
+    let pkg = parse(&rect_beam(6.0, "losses = 30.0"));
     let a = analysis::analyze(&pkg, true).unwrap();
     let st = a.members[0].locations[0].trace.iter().find(|s| s.id.ends_with("prestress.fpj.1")).unwrap();
     assert!((st.value - 202.5).abs() < 1e-12);
@@ -114,25 +104,7 @@ fn whitney_rectangle_closed_form() {
 // Mn = 0.612 x 257.61 (21 - 1.5457) / 12 = 255.6 kip-ft.
 #[test]
 fn approximate_fps_by_hand() {
-    let pkg = parse(&format!(
-        "{HEAD_US}{}",
-        r#"
-[[member]]
-id = "B"
-mu = 100.0
-[member.concrete]
-fc = 5.0
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
-depth = 21.0
-count = 4
-diameter = 0.5
-fse = 160.0
-"#
-    ));
+    let pkg = parse(&rect_beam(5.0, "fse = 160.0"));
     let r = analysis::analyze(&pkg, false).unwrap();
     let ap = &r.members[0].locations[0].approximate;
     assert!(ap.applicable, "{:?}", ap.reason);
@@ -158,25 +130,7 @@ fse = 160.0
 // strain-compatibility procedure). Solved here by plain bisection.
 #[test]
 fn strain_compatibility_equations_by_bisection() {
-    let pkg = parse(&format!(
-        "{HEAD_US}{}",
-        r#"
-[[member]]
-id = "B"
-mu = 100.0
-[member.concrete]
-fc = 5.0
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
-depth = 21.0
-count = 4
-diameter = 0.5
-fse = 160.0
-"#
-    ));
+    let pkg = parse(&rect_beam(5.0, "fse = 160.0"));
     let r = analysis::analyze(&pkg, false).unwrap();
     let l = &r.members[0].locations[0];
     let (b, h, dp, aps, fse, fc) = (12.0, 24.0, 21.0, 0.612, 160.0, 5.0);

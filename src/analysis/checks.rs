@@ -107,12 +107,10 @@ pub(super) fn development(
     li: usize,
     i: usize,
     s: &StrandLayer,
-    c: f64,
-    fse: f64,
     fps: f64,
     at: &mut StrandAt,
     tr: &mut Trace,
-) -> Option<(f64, Option<f64>)> {
+) -> Option<f64> {
     let dev = at.dev.as_mut()?;
     let k = i + 1;
     let (d1, d2) = dev_divisors(p.sys);
@@ -121,7 +119,6 @@ pub(super) fn development(
     let factor = if dev.doubled { 2.0 } else { 1.0 };
     let ld = factor * (fse_full / d1 * s.diameter + (fps_d - fse_full) / d2 * s.diameter);
     dev.development_length = ld;
-    let _ = fse;
     tr.rec(|| {
         let core = add(vec![mul(vec![div(v(0), n(d1)), v(2)]), mul(vec![div(sub(v(1), v(0)), n(d2)), v(2)])]);
         let (formula, note) = if factor == 2.0 {
@@ -182,22 +179,14 @@ pub(super) fn development(
     });
     let ratio = if xb <= ltr { 0.0 } else { (xb - ltr) / (ld - ltr) };
     dev.ratio = Some(ratio);
-    let _ = c;
-    Some((cap, Some(ratio)))
+    Some(cap)
 }
 
 /// phi of ACI 318-19 21.2.3 for strand not fully developed at the section: 0.75 up to
 /// the transfer length, then linear to phi_p (the value of Table 21.2.2) at the
 /// development length, measured from where the bond begins. Only strand below the
 /// neutral axis (in tension) governs.
-pub(super) fn phi_development(
-    p: &Prepared,
-    li: usize,
-    at: &mut [StrandAt],
-    c: f64,
-    phi_p: f64,
-    tr: &mut Trace,
-) -> Option<f64> {
+pub(super) fn phi_development(li: usize, at: &mut [StrandAt], c: f64, phi_p: f64, tr: &mut Trace) -> Option<f64> {
     let mut least: Option<f64> = None;
     for (i, a) in at.iter_mut().enumerate() {
         let k = i + 1;
@@ -231,7 +220,6 @@ pub(super) fn phi_development(
         });
         least = Some(least.map_or(phi, |q| q.min(phi)));
     }
-    let _ = p;
     least
 }
 

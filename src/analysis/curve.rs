@@ -275,7 +275,6 @@ fn build(p: &Prepared, loc: &Location, li: usize) -> Fibres {
         if !a.active {
             continue;
         }
-        let _ = i;
         let y = p.top - a.d;
         if extreme.is_none_or(|(_, d)| a.d > d) {
             extreme = Some((steel.len(), a.d));

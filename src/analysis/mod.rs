@@ -927,9 +927,8 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
     let mut caps = no_caps.clone();
     if loc.x.is_some() {
         for (i, s) in m.strands.iter().enumerate() {
-            let fse_i = at[i].fse;
-            if let Some(d) = checks::development(p, li, i, s, st.c, fse_i, fps_full[i], &mut at[i], &mut tr) {
-                caps[i] = d.0;
+            if let Some(cap) = checks::development(p, li, i, s, fps_full[i], &mut at[i], &mut tr) {
+                caps[i] = cap;
             }
         }
         if caps.iter().any(|c| c.is_finite()) {
@@ -987,7 +986,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
     let mn = strength.mn_shown;
     let mu = loc.mu * cv.km;
     let ctl = checks::control(p, li, &model, &st, &mut tr);
-    let phi_dev = checks::phi_development(p, li, &mut at, st.c, ctl.phi, &mut tr);
+    let phi_dev = checks::phi_development(li, &mut at, st.c, ctl.phi, &mut tr);
     let phi = match phi_dev {
         Some(pd) if pd < ctl.phi => {
             let phi_f = ctl.phi;
@@ -1304,7 +1303,7 @@ fn record_solution(
                         si("f", "\"ps\"", "fps", k),
                     );
                     if raw > stl.cap {
-                        stp.formula(min(vec![piece_formula(&curve, eps), v(1)]))
+                        stp.formula(min(vec![curve.piece(eps).formula, v(1)]))
                             .input(si("epsilon", "\"ps\"", "eps_ps", k), eps, Unit::Strain)
                             .input(si("f", "\"px\"", "fpx", k), stl.cap, Unit::Stress)
                             .result(f, Unit::Stress)
@@ -1466,11 +1465,6 @@ fn record_solution(
             .note("moments of the steel forces about the compression resultant")
     });
     Strength { mn_shown, strands, bars }
-}
-
-/// The curve's formula at a strain, over input 0 = eps.
-fn piece_formula(curve: &StrandCurve, eps: f64) -> crate::trace::Expr {
-    curve.piece(eps).formula
 }
 
 /// Whether a member is a one-way slab for the minimum-reinforcement clause.

@@ -932,7 +932,6 @@ fn strand_layer(
     region: &Region,
     length: Option<f64>,
     defaults: &mut Vec<Default>,
-    li: usize,
 ) -> Option<StrandLayer> {
     let sys = cx.sys;
     let names = sys.names();
@@ -1196,7 +1195,6 @@ fn strand_layer(
             return None;
         }
     }
-    let _ = li;
     Some(StrandLayer { profile, count, diameter, area, size, fpu, fpy, grade, model, fse, fse_source, debonded_length })
 }
 
@@ -1563,7 +1561,7 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     for (k, s) in m.strands.iter().enumerate() {
         cx.enter(Seg::Key("strands"));
         cx.enter(Seg::Idx(k));
-        if let Some(layer) = strand_layer(cx, s, &region, length, &mut defaults, k) {
+        if let Some(layer) = strand_layer(cx, s, &region, length, &mut defaults) {
             strands.push(layer);
         }
         cx.leave();
