@@ -120,19 +120,48 @@ pub fn check_json<'a>(pkg: &'a Package, a: &'a Analysis) -> CheckJson<'a> {
         format: 1,
         units: pkg.units.names(),
         pass: a.pass(),
-        members: a
-            .members
-            .iter()
-            .map(|m: &MemberResult| MemberJson {
-                id: &m.id,
-                governing: &m.governing().name,
-                pass: m.pass,
-                top: location_json(m.governing(), true),
-                locations: m.locations.iter().map(|l| location_json(l, false)).collect(),
-            })
-            .collect(),
+        members: a.members.iter().map(member_json).collect(),
         warnings: &pkg.warnings,
     }
+}
+
+fn member_json(m: &MemberResult) -> MemberJson<'_> {
+    MemberJson {
+        id: &m.id,
+        governing: &m.governing().name,
+        pass: m.pass,
+        top: location_json(m.governing(), true),
+        locations: m.locations.iter().map(|l| location_json(l, false)).collect(),
+    }
+}
+
+/// Appends one member as `check --json` writes it in its `members` array.
+pub fn write_member_json(out: &mut Vec<u8>, m: &MemberResult) {
+    // writing to memory cannot fail for these types
+    let _ = serde_json::to_writer(&mut *out, &member_json(m));
+}
+
+/// Writes `check --json` from members already written (by [`write_member_json`],
+/// comma-separated, in pieces in input order): the same bytes as serialising
+/// [`check_json`].
+pub fn write_check_json(
+    w: &mut dyn std::io::Write,
+    pkg: &Package,
+    pass: bool,
+    pieces: &[Vec<u8>],
+) -> std::io::Result<()> {
+    w.write_all(b"{\"format\":1,\"units\":")?;
+    serde_json::to_writer(&mut *w, &pkg.units.names())?;
+    w.write_all(if pass { b",\"pass\":true,\"members\":[" } else { b",\"pass\":false,\"members\":[" })?;
+    for (i, p) in pieces.iter().filter(|p| !p.is_empty()).enumerate() {
+        if i > 0 {
+            w.write_all(b",")?;
+        }
+        w.write_all(p)?;
+    }
+    w.write_all(b"],\"warnings\":")?;
+    serde_json::to_writer(&mut *w, &pkg.warnings)?;
+    w.write_all(b"}")
 }
 
 /// `check`: one row per location.

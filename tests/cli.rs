@@ -112,3 +112,34 @@ fn usage_errors_exit_2() {
     let help = bin().args(["sign", "--help"]).output().unwrap();
     assert!(String::from_utf8_lossy(&help.stdout).contains("not a professional seal"));
 }
+
+// `check --json` is written in parallel pieces; the bytes must be exactly those of
+// serialising the whole result at once, for every shipped example and for a package
+// large enough to be cut into many pieces (with members that fail and pass).
+#[test]
+fn check_json_pieces_equal_the_whole() {
+    let mut texts: Vec<(String, String)> =
+        ["parking-double-tee.toml", "inverted-tee-girder.toml", "hollow-core-plank.toml"]
+            .iter()
+            .map(|n| (n.to_string(), std::fs::read_to_string(common::example(n)).unwrap()))
+            .collect();
+    let mut big = String::from(common::HEAD_US);
+    for i in 0..70 {
+        big.push_str(&format!(
+            "\n[[member]]\nid = \"R{i}\"\nmu = {}\n[member.concrete]\nfc = 6.0\n[member.section]\nshape = \"rectangle\"\nwidth = 12.0\nheight = 24.0\n[[member.strands]]\ndepth = 21.0\ncount = {}\ndiameter = 0.5\nfse = 160.0\n",
+            150.0 + 3.0 * i as f64,
+            2 + i % 5
+        ));
+    }
+    texts.push(("generated".into(), big));
+    for (name, text) in texts {
+        let pkg = common::parse(&text);
+        let a = strainsheet::analysis::analyze(&pkg, false).unwrap();
+        let whole = serde_json::to_vec(&strainsheet::present::check_json(&pkg, &a)).unwrap();
+        let out = strainsheet::check_json(&pkg).unwrap();
+        let mut pieces = Vec::new();
+        out.write(&pkg, &mut pieces).unwrap();
+        assert_eq!(out.pass, a.pass(), "{name}");
+        assert!(whole == pieces, "{name}: the assembled JSON differs from the whole");
+    }
+}

@@ -263,7 +263,10 @@ impl Analysis {
 
 /// Analyses every member (in parallel; the result keeps the input order).
 pub fn analyze(pkg: &Package, trace: bool) -> Result<Analysis> {
-    let members = pkg.members.par_iter().map(|m| analyze_member(m, pkg.units, trace)).collect::<Result<Vec<_>>>()?;
+    let results: Vec<Result<MemberResult>> =
+        pkg.members.par_iter().map(|m| analyze_member(m, pkg.units, trace)).collect();
+    // the first error in input order, whichever thread met it first
+    let members = results.into_iter().collect::<Result<Vec<_>>>()?;
     Ok(Analysis { units: pkg.units, members })
 }
 
