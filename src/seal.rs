@@ -16,6 +16,9 @@ pub fn canonical(v: &Value) -> Vec<u8> {
     out
 }
 
+/// Arrays at least this long are written in parallel pieces (the members of a package).
+const PARALLEL_FROM: usize = 8;
+
 fn write(v: &Value, out: &mut Vec<u8>) {
     match v {
         Value::Object(map) => {
@@ -26,11 +29,30 @@ fn write(v: &Value, out: &mut Vec<u8>) {
                 if i > 0 {
                     out.push(b',');
                 }
-                out.extend_from_slice(serde_json::to_string(k).unwrap_or_default().as_bytes());
+                scalar(&Value::String(k.clone()), out);
                 out.push(b':');
                 write(&map[k], out);
             }
             out.push(b'}');
+        }
+        Value::Array(xs) if xs.len() >= PARALLEL_FROM && xs.iter().any(|x| x.is_object()) => {
+            use rayon::prelude::*;
+            let parts: Vec<Vec<u8>> = xs
+                .par_iter()
+                .map(|x| {
+                    let mut b = Vec::new();
+                    write(x, &mut b);
+                    b
+                })
+                .collect();
+            out.push(b'[');
+            for (i, p) in parts.iter().enumerate() {
+                if i > 0 {
+                    out.push(b',');
+                }
+                out.extend_from_slice(p);
+            }
+            out.push(b']');
         }
         Value::Array(xs) => {
             out.push(b'[');
@@ -42,8 +64,14 @@ fn write(v: &Value, out: &mut Vec<u8>) {
             }
             out.push(b']');
         }
-        other => out.extend_from_slice(other.to_string().as_bytes()),
+        other => scalar(other, out),
     }
+}
+
+/// A string, number, boolean or null as serde_json writes it (writing to memory cannot
+/// fail for these).
+fn scalar(v: &Value, out: &mut Vec<u8>) {
+    let _ = serde_json::to_writer(&mut *out, v);
 }
 
 /// SHA-256 of bytes, lowercase hex.

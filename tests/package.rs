@@ -238,3 +238,41 @@ fn sidecar_reads_with_sha256sum() {
         .unwrap();
     assert!(check.status.success(), "{}", String::from_utf8_lossy(&check.stdout));
 }
+
+// The contents lists its rows from the data and looks up only their sheets: each row's
+// sheet must be the sheet where that part begins, and no row may lack its sheet.
+#[test]
+fn contents_points_at_the_right_sheets() {
+    for ex in EXAMPLES {
+        let (pkg, r) = render_example(ex);
+        let contents = pdftotext(&r.pdf, Some(2));
+        assert!(!contents.contains('—'), "{ex}: a contents row has no sheet:\n{contents}");
+        let sheet_of = |needle: &str| -> usize {
+            let line = contents
+                .lines()
+                .find(|l| l.trim_start().starts_with(needle))
+                .unwrap_or_else(|| panic!("{ex}: no contents row for {needle:?}:\n{contents}"));
+            line.split_whitespace().last().and_then(|w| w.parse().ok()).unwrap_or_else(|| panic!("{ex}: row {line:?}"))
+        };
+        for m in &pkg.members {
+            let s = sheet_of(&format!("Member {}", m.id));
+            let text = pdftotext(&r.pdf, Some(s));
+            assert!(text.contains(&format!("Member {}", m.id)), "{ex}: member {} is not on sheet {s}", m.id);
+            for loc in &m.locations {
+                // location rows are indented under their member; find the first after it
+                let after = &contents[contents.find(&format!("Member {}", m.id)).unwrap()..];
+                let line = after.lines().find(|l| l.trim_start().starts_with(loc.name.as_str())).unwrap();
+                let s: usize = line.split_whitespace().last().unwrap().parse().unwrap();
+                let text = pdftotext(&r.pdf, Some(s));
+                assert!(
+                    text.contains(&format!("{} · {}", m.id, loc.name)),
+                    "{ex}: {} {} is not on sheet {s}",
+                    m.id,
+                    loc.name
+                );
+            }
+        }
+        let s = sheet_of("Summary of members");
+        assert!(pdftotext(&r.pdf, Some(s)).contains("Summary of members"), "{ex}: summary not on sheet {s}");
+    }
+}

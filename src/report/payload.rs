@@ -471,7 +471,10 @@ pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Va
             })
         })
         .collect();
-    let members: Vec<Value> = a.members.iter().zip(&pkg.members).map(|(r, m)| member_view(r, m, sys)).collect();
+    let members: Vec<Value> = {
+        use rayon::prelude::*;
+        a.members.par_iter().zip(&pkg.members).map(|(r, m)| member_view(r, m, sys)).collect()
+    };
     let draft = meta.is_draft();
     let signoffs: Vec<Value> = meta
         .signoffs
@@ -549,23 +552,46 @@ pub fn view(payload: &Value) -> Value {
             }
         }
     }
-    let mut v = payload.clone();
-    if let Some(members) = v.get_mut("members").and_then(Value::as_array_mut) {
-        for m in members {
-            steps(m);
-            if let Some(o) = m.as_object_mut() {
-                o.remove("input");
-                o.remove("curve_data");
-            }
-            if let Some(locs) = m.get_mut("locations").and_then(Value::as_array_mut) {
-                for l in locs {
-                    steps(l);
-                    if let Some(o) = l.as_object_mut() {
-                        o.remove("iterations");
+    // every member is pruned on its own, in parallel; the rest is copied
+    use rayon::prelude::*;
+    let Value::Object(top) = payload else { return payload.clone() };
+    let mut out = serde_json::Map::new();
+    for (k, val) in top {
+        if k == "members"
+            && let Value::Array(ms) = val
+        {
+            out.insert(k.clone(), Value::Array(ms.par_iter().map(|m| member(m.clone())).collect()));
+        } else {
+            out.insert(k.clone(), val.clone());
+        }
+    }
+    fn member(mut m: Value) -> Value {
+        steps(&mut m);
+        if let Some(o) = m.as_object_mut() {
+            o.remove("input");
+            o.remove("curve_data");
+        }
+        if let Some(locs) = m.get_mut("locations").and_then(Value::as_array_mut) {
+            for l in locs {
+                steps(l);
+                if let Some(o) = l.as_object_mut() {
+                    o.remove("iterations");
+                    // each layer carries its printed values, so a figure labels a
+                    // layer without looking it up in the location
+                    for (raw, shown) in [("strands", "strands_shown"), ("bars", "bars_shown")] {
+                        let printed = o.get(shown).and_then(Value::as_array).cloned().unwrap_or_default();
+                        if let Some(list) = o.get_mut(raw).and_then(Value::as_array_mut) {
+                            for (layer, p) in list.iter_mut().zip(printed) {
+                                if let Some(lo) = layer.as_object_mut() {
+                                    lo.insert("shown".into(), p);
+                                }
+                            }
+                        }
                     }
                 }
             }
         }
+        m
     }
-    v
+    Value::Object(out)
 }
