@@ -160,3 +160,44 @@ fn curve_json_has_the_contract_keys() {
     assert_eq!(bad.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&bad.stderr).contains("HC-1, HC-2"));
 }
+
+// The curve follows one branch of equilibrium from the prestressed state to its end: no
+// point lies past the crushing or rupture strain, the top strain grows in small steps,
+// and the moment never falls by more than the small drop when the concrete cracks (its
+// tension is lost at once). A curve that jumped to a second equilibrium (a state past
+// crushing, with the compression deep in the section) broke all three.
+#[test]
+fn the_curve_follows_one_branch() {
+    for ex in ["parking-double-tee.toml", "inverted-tee-girder.toml", "hollow-core-plank.toml"] {
+        let (_, pkg) = strainsheet::input::load(&example(ex)).unwrap();
+        for m in &pkg.members {
+            let r = analysis::analyze_member(m, pkg.units, false).unwrap();
+            let c = moment_curvature(m, pkg.units, r.governing).unwrap();
+            let (crush, rupture) = (m.curve.crushing_strain, m.curve.rupture_strain);
+            let peak = c.peak.moment;
+            for w in c.points.windows(2) {
+                let (a, b) = (w[0], w[1]);
+                assert!(
+                    -b.top_strain <= crush * (1.0 + 1e-9),
+                    "{ex} {}: top strain {} past crushing",
+                    m.id,
+                    b.top_strain
+                );
+                assert!(
+                    b.strand_strain <= rupture * (1.0 + 1e-9),
+                    "{ex} {}: strand strain {} past rupture",
+                    m.id,
+                    b.strand_strain
+                );
+                assert!(
+                    (b.top_strain - a.top_strain).abs() <= crush / 10.0,
+                    "{ex} {}: top strain jumps {} -> {}",
+                    m.id,
+                    a.top_strain,
+                    b.top_strain
+                );
+                assert!(b.moment >= a.moment - 0.06 * peak, "{ex} {}: moment falls {} -> {}", m.id, a.moment, b.moment);
+            }
+        }
+    }
+}

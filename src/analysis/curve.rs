@@ -175,12 +175,20 @@ impl Fibres {
         None
     }
 
-    /// Solves axial equilibrium for d0 at a curvature increment, starting near `guess`.
-    fn equilibrium(&self, base: &State, dk: f64, guess: f64, scale_n: f64, h: f64) -> Option<State> {
+    /// Solves axial equilibrium for d0 at a curvature increment, by the root nearest
+    /// `guess`: the search widens from `guess` by `step` (about the change of d0 to
+    /// expect), so that the curve follows its own branch. The axial force is not
+    /// monotonic in d0 once concrete softens or cracks, and a wide first bracket could
+    /// hold a second, unrelated equilibrium (a state past crushing, say).
+    fn equilibrium(&self, base: &State, dk: f64, guess: f64, scale_n: f64, step: f64) -> Option<State> {
         let f = |d0: f64| self.forces(&State { d0, dk, ..*base }, false).0;
-        let step = (dk.abs() * h).max(1e-6) * 0.5;
-        let (a, b, fa, fb) = bracket(f, guess, step, 60)?;
+        let (a, b, fa, fb) = bracket(f, guess, step.max(1e-12), 80)?;
         let d0 = brent(f, a, b, fa, fb, 1e-15, 1e-10 * scale_n)?;
+        // a sign change across a jump of the force (a strip cracking) is not an
+        // equilibrium unless the jump is small
+        if f(d0).abs() > 1e-3 * scale_n {
+            return None;
+        }
         Some(State { d0, dk, ..*base })
     }
 
@@ -369,8 +377,15 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
         base = s;
     }
 
-    // stage 2: composite from the starting state; increments dk from 0
-    let solve_at = |dk: f64, guess: f64| f.equilibrium(&base, dk, guess, scale_n, h);
+    // stage 2: composite from the starting state; increments dk from 0. The curve is
+    // followed step by step from the start (continuation): each state is solved from
+    // the one before, with steps that shrink where the strains change fast, up to the
+    // crushing or rupture strain, or to a limit point where no neighbouring
+    // equilibrium exists (the section softens).
+    let solve_from = |from: &State, dk: f64| {
+        let step = ((dk - from.dk).abs() * h * 0.25).max(1e-12);
+        f.equilibrium(&base, dk, from.d0, scale_n, step)
+    };
     let end_fn = |s: &State| {
         let crush = -f.top_strain(s, false) / opts.crushing_strain;
         let rupture = match f.extreme.map(|i| f.steel[i].law) {
@@ -379,50 +394,78 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
         };
         (crush.max(rupture) - 1.0, crush >= rupture)
     };
-    // find the end: widen dk until the crushing or rupture strain is reached
-    let mut lo = 0.0;
-    let mut lo_d0 = 0.0;
-    let mut hi = opts.crushing_strain / h;
-    let mut hi_state = None;
-    for _ in 0..80 {
-        match solve_at(hi, lo_d0) {
-            Some(s) if end_fn(&s).0 < 0.0 => {
-                lo = hi;
-                lo_d0 = s.d0;
-                hi *= 2.0;
+    // the largest change of the top strain and of the extreme steel strain allowed in
+    // one step of the march
+    let d_top = opts.crushing_strain / 40.0;
+    let d_steel = opts.rupture_strain / 40.0;
+    let smooth = |a: &State, b: &State| {
+        (f.top_strain(a, false) - f.top_strain(b, false)).abs() <= d_top
+            && (f.strand_strain(a, false) - f.strand_strain(b, false)).abs() <= d_steel
+    };
+    let mut march: Vec<State> = vec![base];
+    let mut dstep = opts.crushing_strain / h / 32.0;
+    let mut ended_by = "";
+    let mut end_state = None;
+    for _ in 0..20_000 {
+        let cur = *march.last().unwrap_or(&base);
+        if dstep <= 1e-9 * cur.dk.abs().max(opts.crushing_strain / h) {
+            ended_by = "a limit point (no equilibrium beyond it: the section softens)";
+            end_state = Some(cur);
+            break;
+        }
+        let next = match solve_from(&cur, cur.dk + dstep) {
+            Some(s) if smooth(&cur, &s) => s,
+            _ => {
+                dstep *= 0.5;
+                continue;
             }
-            Some(s) => {
-                hi_state = Some(s);
-                break;
-            }
-            None => break,
+        };
+        if end_fn(&next).0 >= 0.0 {
+            // the end lies in this step: find it on the branch, from the state before
+            let g = |dk: f64| solve_from(&cur, dk).map_or(f64::NAN, |s| end_fn(&s).0);
+            let (glo, ghi) = (end_fn(&cur).0, end_fn(&next).0);
+            let dk = if glo >= 0.0 {
+                cur.dk
+            } else {
+                brent(g, cur.dk, next.dk, glo, ghi, 1e-14 * next.dk.abs().max(1e-30), 1e-10).unwrap_or(next.dk)
+            };
+            let s = solve_from(&cur, dk).unwrap_or(next);
+            ended_by = if end_fn(&s).1 { "concrete crushing" } else { "strand rupture" };
+            march.push(s);
+            end_state = Some(s);
+            break;
+        }
+        let change = (f.top_strain(&cur, false) - f.top_strain(&next, false))
+            .abs()
+            .max((f.strand_strain(&cur, false) - f.strand_strain(&next, false)).abs() * d_top / d_steel);
+        march.push(next);
+        if change < 0.5 * d_top {
+            dstep *= 1.6;
         }
     }
-    let Some(_) = hi_state else {
-        return Err(fail(m, loc, "no equilibrium was found up to the crushing or rupture strain"));
-    };
-    let g = |dk: f64| solve_at(dk, lo_d0).map_or(1.0, |s| end_fn(&s).0);
-    let (glo, ghi) = (g(lo), g(hi));
-    let dk_end =
-        if lo == 0.0 && glo >= 0.0 { 0.0 } else { brent(g, lo, hi, glo, ghi, 1e-14 * hi, 1e-10).unwrap_or(hi) };
-    let end_state = solve_at(dk_end, lo_d0).ok_or_else(|| fail(m, loc, "no equilibrium at the end of the curve"))?;
-    let ended_by = if end_fn(&end_state).1 { "concrete crushing" } else { "strand rupture" };
+    let end_state =
+        end_state.ok_or_else(|| fail(m, loc, "no equilibrium was found up to the crushing or rupture strain"))?;
+    let dk_end = end_state.dk;
 
-    // points: denser at the start, where cracking happens
+    // points: denser at the start, where cracking happens; each solved from the
+    // marched state just below it, so it lies on the same branch
     let n = opts.points.max(2);
-    let mut guess = 0.0;
     let mut states: Vec<(f64, State)> = Vec::with_capacity(n + 4);
+    let mut k = 0;
     for j in 1..=n {
         let s = j as f64 / n as f64;
         let dk = dk_end * s * s;
         let st = if j == n {
             end_state
         } else {
-            solve_at(dk, guess).ok_or_else(|| fail(m, loc, "no equilibrium at a step of the curve"))?
+            while k + 1 < march.len() && march[k + 1].dk <= dk {
+                k += 1;
+            }
+            solve_from(&march[k], dk).ok_or_else(|| fail(m, loc, "no equilibrium at a step of the curve"))?
         };
-        guess = st.d0;
         states.push((dk, st));
     }
+    let solve_at = |dk: f64, from: &State| solve_from(from, dk);
     // events between points: cracking (bottom strip reaches fr) and first strand yield
     let mut insert = Vec::new();
     let mut yielding = None;
@@ -430,9 +473,9 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
     for &(dk, st) in &states {
         let crack = |s: &State| f.precast_strain(s, y_bot_strip) - eps_cr;
         if cracking.is_none() && crack(&prev.1) < 0.0 && crack(&st) >= 0.0 {
-            let gc = |x: f64| solve_at(x, prev.1.d0).map_or(f64::NAN, |s| crack(&s));
+            let gc = |x: f64| solve_at(x, &prev.1).map_or(f64::NAN, |s| crack(&s));
             if let Some(x) = brent(gc, prev.0, dk, crack(&prev.1), crack(&st), 1e-15 * dk_end, 0.0)
-                && let Some(s) = solve_at(x, prev.1.d0)
+                && let Some(s) = solve_at(x, &prev.1)
             {
                 let mo = f.forces(&s, false).1;
                 cracking = Some(Mark { curvature: s.k0 + s.dk, moment: mo * km });
@@ -442,9 +485,9 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
         if let (None, Some(fpy), Some(i)) = (&yielding, fpy, f.extreme) {
             let ys = |s: &State| f.steel[i].stress(f.strand_strain(s, false), false) - fpy;
             if ys(&prev.1) < 0.0 && ys(&st) >= 0.0 {
-                let gy = |x: f64| solve_at(x, prev.1.d0).map_or(f64::NAN, |s| ys(&s));
+                let gy = |x: f64| solve_at(x, &prev.1).map_or(f64::NAN, |s| ys(&s));
                 if let Some(x) = brent(gy, prev.0, dk, ys(&prev.1), ys(&st), 1e-15 * dk_end, 0.0)
-                    && let Some(s) = solve_at(x, prev.1.d0)
+                    && let Some(s) = solve_at(x, &prev.1)
                 {
                     let mo = f.forces(&s, false).1;
                     yielding = Some(Mark { curvature: s.k0 + s.dk, moment: mo * km });
