@@ -4,12 +4,12 @@
 use clap::{Parser, Subcommand, ValueEnum};
 use std::path::PathBuf;
 use std::process::ExitCode;
+use strainsheet::{Error, analysis, diff, input, output, present, report, seal, sign, starter, verify};
+
 /// mimalloc: the typesetter and the TOML reader make many small allocations; with it
 /// `check` on large packages is about a fifth faster than with the system allocator.
 #[global_allocator]
 static ALLOC: mimalloc::MiMalloc = mimalloc::MiMalloc;
-
-use strainsheet::{Error, analysis, diff, input, output, present, report, seal, sign, starter, verify};
 
 #[derive(Parser)]
 #[command(

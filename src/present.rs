@@ -153,7 +153,7 @@ pub fn write_check_json(
     w.write_all(b"{\"format\":1,\"units\":")?;
     serde_json::to_writer(&mut *w, &pkg.units.names())?;
     w.write_all(if pass { b",\"pass\":true,\"members\":[" } else { b",\"pass\":false,\"members\":[" })?;
-    for (i, p) in pieces.iter().filter(|p| !p.is_empty()).enumerate() {
+    for (i, p) in pieces.iter().enumerate() {
         if i > 0 {
             w.write_all(b",")?;
         }

@@ -396,11 +396,12 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
     };
     // the largest change of the top strain and of the extreme steel strain allowed in
     // one step of the march
+    // (as a share of that limit: a step is accepted up to 1)
     let d_top = opts.crushing_strain / 40.0;
     let d_steel = opts.rupture_strain / 40.0;
-    let smooth = |a: &State, b: &State| {
-        (f.top_strain(a, false) - f.top_strain(b, false)).abs() <= d_top
-            && (f.strand_strain(a, false) - f.strand_strain(b, false)).abs() <= d_steel
+    let change = |a: &State, b: &State| {
+        ((f.top_strain(a, false) - f.top_strain(b, false)).abs() / d_top)
+            .max((f.strand_strain(a, false) - f.strand_strain(b, false)).abs() / d_steel)
     };
     let mut march: Vec<State> = vec![base];
     let mut dstep = opts.crushing_strain / h / 32.0;
@@ -414,7 +415,7 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
             break;
         }
         let next = match solve_from(&cur, cur.dk + dstep) {
-            Some(s) if smooth(&cur, &s) => s,
+            Some(s) if change(&cur, &s) <= 1.0 => s,
             _ => {
                 dstep *= 0.5;
                 continue;
@@ -435,13 +436,10 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
             end_state = Some(s);
             break;
         }
-        let change = (f.top_strain(&cur, false) - f.top_strain(&next, false))
-            .abs()
-            .max((f.strand_strain(&cur, false) - f.strand_strain(&next, false)).abs() * d_top / d_steel);
-        march.push(next);
-        if change < 0.5 * d_top {
+        if change(&cur, &next) < 0.5 {
             dstep *= 1.6;
         }
+        march.push(next);
     }
     let end_state =
         end_state.ok_or_else(|| fail(m, loc, "no equilibrium was found up to the crushing or rupture strain"))?;
@@ -465,7 +463,6 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
         };
         states.push((dk, st));
     }
-    let solve_at = |dk: f64, from: &State| solve_from(from, dk);
     // events between points: cracking (bottom strip reaches fr) and first strand yield
     let mut insert = Vec::new();
     let mut yielding = None;
@@ -473,9 +470,9 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
     for &(dk, st) in &states {
         let crack = |s: &State| f.precast_strain(s, y_bot_strip) - eps_cr;
         if cracking.is_none() && crack(&prev.1) < 0.0 && crack(&st) >= 0.0 {
-            let gc = |x: f64| solve_at(x, &prev.1).map_or(f64::NAN, |s| crack(&s));
+            let gc = |x: f64| solve_from(&prev.1, x).map_or(f64::NAN, |s| crack(&s));
             if let Some(x) = brent(gc, prev.0, dk, crack(&prev.1), crack(&st), 1e-15 * dk_end, 0.0)
-                && let Some(s) = solve_at(x, &prev.1)
+                && let Some(s) = solve_from(&prev.1, x)
             {
                 let mo = f.forces(&s, false).1;
                 cracking = Some(Mark { curvature: s.k0 + s.dk, moment: mo * km });
@@ -485,9 +482,9 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
         if let (None, Some(fpy), Some(i)) = (&yielding, fpy, f.extreme) {
             let ys = |s: &State| f.steel[i].stress(f.strand_strain(s, false), false) - fpy;
             if ys(&prev.1) < 0.0 && ys(&st) >= 0.0 {
-                let gy = |x: f64| solve_at(x, &prev.1).map_or(f64::NAN, |s| ys(&s));
+                let gy = |x: f64| solve_from(&prev.1, x).map_or(f64::NAN, |s| ys(&s));
                 if let Some(x) = brent(gy, prev.0, dk, ys(&prev.1), ys(&st), 1e-15 * dk_end, 0.0)
-                    && let Some(s) = solve_at(x, &prev.1)
+                    && let Some(s) = solve_from(&prev.1, x)
                 {
                     let mo = f.forces(&s, false).1;
                     yielding = Some(Mark { curvature: s.k0 + s.dk, moment: mo * km });

@@ -7,7 +7,7 @@ use crate::analysis::{Analysis, LocationResult, MemberResult};
 use crate::input::{Package, Source};
 use crate::trace::{Step, Style, Unit, scale, scaled, show};
 use crate::units::System;
-use serde_json::{Map, Value, json};
+use serde_json::{Value, json};
 
 /// What the templates print for a unit.
 fn unit_name(u: Unit, sys: System) -> &'static str {
@@ -76,15 +76,8 @@ pub fn step_view(st: &Step, sys: System) -> Value {
     })
 }
 
-fn steps_view(steps: &[Step], sys: System) -> (Value, Value) {
-    let list: Vec<Value> = steps.iter().map(|s| step_view(s, sys)).collect();
-    let mut by = Map::new();
-    for (i, v) in list.iter().enumerate() {
-        if let Some(k) = v["short"].as_str() {
-            by.insert(k.to_string(), json!(i));
-        }
-    }
-    (Value::Array(list), Value::Object(by))
+fn steps_view(steps: &[Step], sys: System) -> Value {
+    Value::Array(steps.iter().map(|s| step_view(s, sys)).collect())
 }
 
 fn opt(v: Option<f64>) -> Value {
@@ -96,11 +89,10 @@ fn opt(v: Option<f64>) -> Value {
 
 fn location_view(l: &LocationResult, sys: System) -> Value {
     let mut v = serde_json::to_value(l).unwrap_or(Value::Null);
-    let (steps, by) = steps_view(&l.trace, sys);
+    let steps = steps_view(&l.trace, sys);
     let obj = v.as_object_mut().expect("a location serialises as an object");
     obj.remove("trace");
     obj.insert("steps".into(), steps);
-    obj.insert("by_id".into(), by);
     let iters: Vec<Value> = l
         .iterations
         .iter()
@@ -256,7 +248,7 @@ fn show_tick(t: f64) -> String {
 }
 
 fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: System) -> Value {
-    let (steps, by) = steps_view(&m.trace, sys);
+    let steps = steps_view(&m.trace, sys);
     let u = sys.names();
     let mut rows: Vec<Value> = Vec::new();
     let mut row = |k: &str, v: String| rows.push(json!([k, v]));
@@ -357,7 +349,6 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
         "strands": strands,
         "bars": bars,
         "steps": steps,
-        "by_id": by,
         "locations": locations,
         "defaults": input.defaults,
         "input": input,
