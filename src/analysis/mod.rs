@@ -1349,9 +1349,9 @@ fn record_solution(
                     }
                 });
             }
-            let fsym = if is_strand { si("f", "\"ps\"", "fps", k) } else { si("f", "\"s\"", "fs", k) };
-            let asym = if is_strand { si("A", "\"ps\"", "Aps", k) } else { si("A", "\"s\"", "As", k) };
             tr.rec(|| {
+                let fsym = if is_strand { si("f", "\"ps\"", "fps", k) } else { si("f", "\"s\"", "fs", k) };
+                let asym = if is_strand { si("A", "\"ps\"", "Aps", k) } else { si("A", "\"s\"", "As", k) };
                 let stp = Step::new(
                     "strength",
                     tag(&format!("strength.{pid}.T.{k}")),

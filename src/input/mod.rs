@@ -154,17 +154,16 @@ fn parse_chunked(text: &str) -> Option<schema::File> {
     struct Piece {
         member: Vec<schema::Member>,
     }
+    // the starts of the lines that hold a `[[member]]` header alone (or with a comment)
     let mut starts = Vec::new();
-    let mut at = 0;
-    for line in text.split_inclusive('\n') {
-        let t = line.trim();
-        if let Some(rest) = t.strip_prefix("[[member]]") {
-            let rest = rest.trim_start();
-            if rest.is_empty() || rest.starts_with('#') {
-                starts.push(at);
-            }
+    const HEADER: &str = "[[member]]";
+    for (at, _) in text.match_indices(HEADER) {
+        let line = text[..at].rfind('\n').map_or(0, |i| i + 1);
+        let end = text[at..].find('\n').map_or(text.len(), |i| at + i);
+        let rest = text[at + HEADER.len()..end].trim_start();
+        if text[line..at].trim().is_empty() && (rest.is_empty() || rest.starts_with('#')) {
+            starts.push(line);
         }
-        at += line.len();
     }
     if starts.len() < CHUNKED_FROM {
         return None;

@@ -86,7 +86,7 @@ fn num(v: f64) -> String {
     if v.is_infinite() {
         return if v > 0.0 { "inf".into() } else { "-inf".into() };
     }
-    let s = format!("{:.6}", v);
+    let s = crate::trace::fixed(v, 6);
     let s = s.trim_end_matches('0').trim_end_matches('.');
     s.to_string()
 }
@@ -215,8 +215,11 @@ impl Ctx {
     /// `v`, or a "missing" problem if it is absent, unless the key was present but
     /// already refused (one message per problem).
     fn required<T>(&mut self, key: &'static str, v: Option<T>, what: &str) -> Option<T> {
+        if v.is_some() {
+            return v;
+        }
         let here = self.at(key);
-        if v.is_none() && !self.problems.iter().any(|p| p.path == here) {
+        if !self.problems.iter().any(|p| p.path == here) {
             self.problem(key, format!("{key} is missing"), Some(what.to_string()));
         }
         v
@@ -560,7 +563,10 @@ fn concrete_of(cx: &mut Ctx, k: ConcreteKeys, defaults: &mut Vec<Default>, prefi
     let r = ranges(cx.sys);
     let names = cx.sys.names();
     let fc = cx.ranged("fc", fc, Dim::Stress, r.fc.0, r.fc.1, false);
-    let fc = cx.required("fc", fc, &format!("f'c, {} to {} {}", r.fc.0, r.fc.1, names.stress))?;
+    let fc = match fc {
+        Some(v) => v,
+        None => cx.required("fc", fc, &format!("f'c, {} to {} {}", r.fc.0, r.fc.1, names.stress))?,
+    };
     if fc < r.fc_usual.0 || fc > r.fc_usual.1 {
         cx.warn(
             "fc",

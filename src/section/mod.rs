@@ -275,13 +275,13 @@ impl Region {
     pub fn width_at(&self, y: f64) -> f64 {
         fn chords(ring: &[P], y: f64) -> f64 {
             let mut xs: Vec<f64> = Vec::new();
-            let n = ring.len();
-            for i in 0..n {
-                let p = ring[i];
-                let q = ring[(i + 1) % n];
+            let Some(&last) = ring.last() else { return 0.0 };
+            let mut p = last;
+            for &q in ring {
                 if (p[1] <= y) != (q[1] <= y) {
                     xs.push(cut(p, q, y)[0]);
                 }
+                p = q;
             }
             xs.sort_by(f64::total_cmp);
             xs.chunks(2).map(|c| if c.len() == 2 { c[1] - c[0] } else { 0.0 }).sum()
