@@ -209,7 +209,8 @@ impl Printer<'_> {
         match self.values {
             Some(vals) => {
                 let v = vals.get(i).cloned().unwrap_or_default();
-                if v.starts_with('-') { format!("({v})") } else { v }
+                let v = if self.style == Style::Math { math_number(&v) } else { v };
+                if v.starts_with('-') || v.starts_with('−') { format!("({v})") } else { v }
             }
             None => match self.style {
                 Style::Math => self.symbols.get(i).map(|s| s.math.clone()).unwrap_or_default(),
@@ -414,6 +415,69 @@ pub fn fixed(v: f64, decimals: usize) -> String {
     s
 }
 
+/// A value in scientific notation as a reader writes it: `decimals` digits after the
+/// mantissa's point and a power of ten with a superscript exponent, "4.3×10⁻¹⁵", and
+/// a true minus sign.
+pub fn sci(v: f64, decimals: usize) -> String {
+    if !v.is_finite() {
+        return "—".to_string();
+    }
+    let s = format!("{v:.decimals$e}");
+    let (mantissa, exp) = s.split_once('e').unwrap_or((&s, "0"));
+    let mantissa = mantissa.replace('-', "−");
+    if exp == "0" {
+        return mantissa;
+    }
+    let sup: String = exp
+        .chars()
+        .map(|c| match c {
+            '-' => '⁻',
+            '0' => '⁰',
+            '1' => '¹',
+            '2' => '²',
+            '3' => '³',
+            '4' => '⁴',
+            '5' => '⁵',
+            '6' => '⁶',
+            '7' => '⁷',
+            '8' => '⁸',
+            _ => '⁹',
+        })
+        .collect();
+    format!("{mantissa}×10{sup}")
+}
+
+/// A shown number as Typst math: "4.3×10⁻¹⁵" (see [`sci`]) or "4.3e-15" becomes
+/// "4.3 times 10^(-15)"; other numbers are unchanged but for a true minus sign's
+/// becoming "-".
+pub fn math_number(s: &str) -> String {
+    let s = s.replace('−', "-");
+    if let Some((m, e)) = s.split_once("×10") {
+        let e: String = e
+            .chars()
+            .map(|c| match c {
+                '⁻' => '-',
+                '⁰' => '0',
+                '¹' => '1',
+                '²' => '2',
+                '³' => '3',
+                '⁴' => '4',
+                '⁵' => '5',
+                '⁶' => '6',
+                '⁷' => '7',
+                '⁸' => '8',
+                '⁹' => '9',
+                other => other,
+            })
+            .collect();
+        return format!("{m} times 10^({e})");
+    }
+    match s.split_once('e') {
+        Some((m, e)) => format!("{m} times 10^({})", e.trim_start_matches('+')),
+        None => s,
+    }
+}
+
 /// A value rounded for display: about four significant figures, never in scientific
 /// notation. Strains and curvatures are shown scaled (see [`scaled`]).
 pub fn show(v: f64) -> String {
@@ -422,7 +486,7 @@ pub fn show(v: f64) -> String {
     }
     let a = v.abs();
     if a != 0.0 && a < 1e-4 {
-        return format!("{v:.1e}");
+        return sci(v, 1);
     }
     let decimals = if a >= 1000.0 {
         0
@@ -671,6 +735,17 @@ mod tests {
                 assert_eq!(fixed(v, d), format!("{v:.d$}"), "{v} with {d} decimals");
             }
         }
+    }
+
+    #[test]
+    fn sci_writes_powers_of_ten() {
+        assert_eq!(sci(4.3e-15, 1), "4.3×10⁻¹⁵");
+        assert_eq!(sci(-220.0, 2), "−2.20×10²");
+        assert_eq!(sci(3.49, 2), "3.49");
+        assert_eq!(sci(f64::NAN, 1), "—");
+        assert_eq!(math_number("−4.3×10⁻¹⁵"), "-4.3 times 10^(-15)");
+        assert_eq!(math_number("9.4e-13"), "9.4 times 10^(-13)");
+        assert_eq!(math_number("−12.5"), "-12.5");
     }
 
     proptest::proptest! {

@@ -80,9 +80,20 @@ fn displayed_values_equal_the_trace() {
                         continue;
                     }
                     let plain = strainsheet::trace::scaled(st.value, st.unit);
-                    // a tiny value prints as mantissa × 10^exponent
-                    let shown = match plain.split_once('e') {
-                        Some((m, e)) => format!("{} × 10{}", m, e).replace('-', "−"),
+                    // a tiny value prints as mantissa × 10^exponent (the sheet's math sets
+                    // the exponent raised: its text has no superscript characters)
+                    let shown = match plain.split_once("×10") {
+                        Some((m, e)) => {
+                            let e: String = e
+                                .chars()
+                                .map(|c| match "⁰¹²³⁴⁵⁶⁷⁸⁹".chars().position(|s| s == c) {
+                                    Some(d) => char::from(b'0' + d as u8),
+                                    None if c == '⁻' => '−',
+                                    None => c,
+                                })
+                                .collect();
+                            format!("{m} × 10{e}").replace('-', "−")
+                        }
                         None => plain.replace('-', "−"),
                     };
                     assert!(

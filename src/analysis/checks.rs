@@ -53,6 +53,7 @@ pub(super) fn transfer(
         .result(ltr, Unit::Length)
         .clause("ACI 318-19 25.4.8.1 (first term), R25.4.8.1")
         .note(match p.sys {
+            _ if s.fse == 0.0 => "untensioned strand: no prestress to transfer",
             System::Us => "fse in ksi (fse/3000 with psi)",
             System::Si => "fse in MPa",
         })
@@ -120,11 +121,15 @@ pub(super) fn development(
     let ld = factor * (fse_full / d1 * s.diameter + (fps_d - fse_full) / d2 * s.diameter);
     dev.development_length = ld;
     tr.rec(|| {
-        let core = add(vec![mul(vec![div(v(0), n(d1)), v(2)]), mul(vec![div(sub(v(1), v(0)), n(d2)), v(2)])]);
-        let (formula, note) = if factor == 2.0 {
-            (mul(vec![n(2.0), core]), "doubled for strand whose bonding does not reach the member end (25.4.8.2), the conservative default; required where service tension is allowed in the precompressed zone")
+        // (fps - fse) / 1 in ksi: no division shown
+        let rise = if d2 == 1.0 { sub(v(1), v(0)) } else { div(sub(v(1), v(0)), n(d2)) };
+        let core = add(vec![mul(vec![div(v(0), n(d1)), v(2)]), mul(vec![rise, v(2)])]);
+        let (formula, note) = if fps_d == 0.0 {
+            (core, "untensioned strand in compression here: its development does not limit it")
+        } else if factor == 2.0 {
+            (mul(vec![n(2.0), core]), "doubled for strand whose bonding does not reach the member end (25.4.8.1(b)), the conservative default; required where service tension is allowed in the precompressed zone; fps as solved at this location with the strand fully developed")
         } else {
-            (core, "fps from the strain-compatibility solution with the strand fully developed")
+            (core, "fps as solved at this location with the strand fully developed, so ℓd differs a little between locations")
         };
         Step::new("development", tag(li, &format!("dev.ld.{k}")), format!("Development length, layer {k}"), si("ell", "d", "ld", k))
             .formula(formula)
@@ -132,7 +137,7 @@ pub(super) fn development(
             .input(si("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
             .input(s_db(), s.diameter, Unit::Length)
             .result(ld, Unit::Length)
-            .clause(if factor == 2.0 { "ACI 318-19 25.4.8.1, 25.4.8.2" } else { "ACI 318-19 25.4.8.1" })
+            .clause(if factor == 2.0 { "ACI 318-19 25.4.8.1(a), (b)" } else { "ACI 318-19 25.4.8.1(a)" })
             .note(note)
     });
     if !at.active {
@@ -215,7 +220,7 @@ pub(super) fn phi_development(li: usize, at: &mut [StrandAt], c: f64, phi_p: f64
                     .input(si("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
                     .input(si("ell", "d", "ld", k), ld, Unit::Length)
                     .result(phi, Unit::Ratio)
-                    .note("linear from 0.75 at the transfer length to phi_p (Table 21.2.2) at the development length")
+                    .note("linear from 0.75 at the transfer length to φp (Table 21.2.2) at the development length")
             }
         });
         least = Some(least.map_or(phi, |q| q.min(phi)));
@@ -348,7 +353,11 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("M_\"nc\"", "Mnc"), mnc, Unit::Moment)
                     .input(sy("S_b", "Sb"), sb, Unit::Modulus)
                     .result(mcr, Unit::Moment)
-                    .clause("ACI 318-19 9.6.2.1, 19.2.3 (PCI Design Handbook form for composite members)")
+                    .clause(if is_slab(p.m) {
+                        "ACI 318-19 7.6.2.1, 19.2.3 (PCI Design Handbook form for composite members)"
+                    } else {
+                        "ACI 318-19 9.6.2.1, 19.2.3 (PCI Design Handbook form for composite members)"
+                    })
                     .note("Mnc: moment on the precast unit before the topping acts")
             });
             mcr
@@ -362,7 +371,7 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("f_r", "fr"), fr, Unit::Stress)
                     .input(sy("f_\"pe\"", "fpe"), fpe, Unit::Stress)
                     .result(mcr, Unit::Moment)
-                    .clause("ACI 318-19 9.6.2.1, 19.2.3")
+                    .clause(if is_slab(p.m) { "ACI 318-19 7.6.2.1, 19.2.3" } else { "ACI 318-19 9.6.2.1, 19.2.3" })
             });
             mcr
         }

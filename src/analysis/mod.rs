@@ -541,25 +541,52 @@ fn record_concrete(
 }
 
 /// The points of a layer for the sketch: spread evenly along the concrete at its level.
-fn layer_points(region: &Region, y: f64, count: u32) -> Vec<P> {
-    // concrete intervals at y
+/// The stretches of concrete cut by the horizontal line y, left to right.
+fn concrete_at(region: &Region, y: f64) -> Vec<(f64, f64)> {
     let mut xs: Vec<f64> = Vec::new();
     for ring in region.rings() {
-        let n = ring.len();
-        for i in 0..n {
-            let (p, q) = (ring[i], ring[(i + 1) % n]);
+        let Some(&last) = ring.last() else { continue };
+        let mut p = last;
+        for &q in ring {
             if (p[1] <= y) != (q[1] <= y) {
                 xs.push(p[0] + (y - p[1]) / (q[1] - p[1]) * (q[0] - p[0]));
             }
+            p = q;
         }
     }
     xs.sort_by(f64::total_cmp);
-    let intervals: Vec<(f64, f64)> = xs.chunks(2).filter(|c| c.len() == 2).map(|c| (c[0], c[1])).collect();
+    xs.chunks(2).filter(|c| c.len() == 2).map(|c| (c[0], c[1])).collect()
+}
+
+/// Where both sets of stretches have concrete.
+fn common(a: &[(f64, f64)], b: &[(f64, f64)]) -> Vec<(f64, f64)> {
+    let mut out = Vec::new();
+    for &(a0, a1) in a {
+        for &(b0, b1) in b {
+            let (lo, hi) = (a0.max(b0), a1.min(b1));
+            if hi > lo {
+                out.push((lo, hi));
+            }
+        }
+    }
+    out
+}
+
+/// Where the sketch draws the bars or strands of a layer: spread over the concrete the
+/// whole bar occupies (from y - d/2 to y + d/2), so none is drawn in a void; if they do
+/// not fit there, over the concrete at y.
+fn layer_points(region: &Region, y: f64, count: u32, d: f64) -> Vec<P> {
+    let r = d / 2.0;
+    let band = common(&concrete_at(region, y), &common(&concrete_at(region, y - r), &concrete_at(region, y + r)));
+    let fits: f64 = band.iter().map(|(a, b)| ((b - a) / d).floor()).sum();
+    let (intervals, inset) = if fits >= count as f64 { (band, r) } else { (concrete_at(region, y), 0.0) };
+    let intervals: Vec<(f64, f64)> =
+        intervals.into_iter().filter(|(a, b)| b - a > 2.0 * inset).map(|(a, b)| (a + inset, b - inset)).collect();
     let total: f64 = intervals.iter().map(|(a, b)| b - a).sum();
     if total <= 0.0 || count == 0 {
         return Vec::new();
     }
-    // share the count among the intervals by length, at least one where it fits
+    // share the count among the intervals by length
     let mut pts = Vec::new();
     let mut left = count as usize;
     for (k, (a, b)) in intervals.iter().enumerate() {
@@ -888,7 +915,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
         } else {
             st = st.note("no prestress at this location");
         }
-        st.result(e, Unit::Length).note("y_i: distance of layer i below the centroid of the precast unit")
+        st.result(e, Unit::Length).note("y: each layer's distance below the centroid of the precast unit")
     });
     for (i, a) in at.iter().enumerate() {
         let k = i + 1;
@@ -962,10 +989,16 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
                             )
                             .result(mn_o, Unit::Moment)
                             .note(format!(
-                                "block = \"{}\": c = {} , a = {}; shown for comparison only",
+                                "{} (input block = \"{}\"): c = {} {len}, a = {} {len}; shown for comparison only",
+                                if other == BlockMode::TwoPart {
+                                    "each concrete's 0.85 f'c over its own part of the block"
+                                } else {
+                                    "the topping's f'c over the whole block"
+                                },
                                 if other == BlockMode::TwoPart { "two_part" } else { "topping" },
                                 crate::trace::show(os.c),
-                                crate::trace::show(os.a)
+                                crate::trace::show(os.a),
+                                len = sys.names().length
                             ))
                         });
                         Some(OtherBlock { block: other, c: os.c, a: os.a, mn: mn_o })
@@ -1014,7 +1047,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
             .input(sy("phi", "phi"), phi, Unit::Ratio)
             .input(sy("M_n", "Mn"), mn, Unit::Moment)
             .result(phi_mn, Unit::Moment)
-            .clause("ACI 318-19 9.5.1.1")
+            .clause(if is_slab(p.m) { "ACI 318-19 7.5.1.1" } else { "ACI 318-19 9.5.1.1" })
     });
     tr.rec(|| {
         Step::new("checks", tag("ratio"), "Demand to capacity ratio", sy("\"ratio\"", "ratio"))
@@ -1076,6 +1109,16 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
         conclusion.push_str(&format!(
             " Caution: the total strand strain {} % exceeds the 3.5 % minimum elongation of ASTM A416, so the strand may rupture before the concrete reaches 0.003; review the strand's elongation capacity.",
             crate::trace::show(max_strand_strain * 100.0)
+        ));
+    }
+    // strand limited by its development slips before it ruptures: its strain is not an
+    // elongation to compare with A416, but a checker will see it in the layer table
+    let capped_strain =
+        strength.strands.iter().filter(|l| l.active && l.cap.is_some()).map(|l| l.eps).fold(0.0, f64::max);
+    if capped_strain > 0.035 {
+        conclusion.push_str(&format!(
+            " The strand strain of up to {} % here is that of strand not fully developed at this location: its stress is held at fpx and it would slip before it ruptures, so the strain is not compared with the 3.5 % elongation of ASTM A416.",
+            crate::trace::show(capped_strain * 100.0)
         ));
     }
     if pass && !minr.ok && minr.waiver_flexure {
@@ -1180,7 +1223,7 @@ fn record_solution(
     tr.rec(|| {
         Step::new("strength", tag("c"), "Neutral-axis depth from force equilibrium", sy("c", "c"))
             .result(c, Unit::Length)
-            .note(format!("Brent's method, {trials} trials; closure |C - ΣT| / C = {closure:.1e}"))
+            .note(format!("Brent's method, {trials} trials; closure |C − ΣT| / C = {}", crate::trace::sci(closure, 1)))
     });
     tr.rec(|| {
         let st_ = Step::new("strength", tag("a"), "Depth of the equivalent stress block", sy("a", "a"))
@@ -1365,7 +1408,7 @@ fn record_solution(
                         .input(sy("0.85 f'_c", "0.85f'c"), stl.displaced, Unit::Stress)
                         .input(sy("chi", "share in block"), inside, Unit::Ratio)
                         .result(force, Unit::Force)
-                        .note("inside the stress block: the concrete it displaces is deducted")
+                        .note("inside the stress block: the concrete it displaces is deducted; χ is the share of the layer within the block")
                 } else {
                     stp.formula(per(mul(vec![v(0), v(1)]), cv.f_div))
                         .input(asym, stl.area, Unit::Area)
@@ -1387,7 +1430,7 @@ fn record_solution(
                 s_.count,
                 s_.area,
                 s_.diameter,
-                if sketch { layer_points(&m.region, y, s_.count) } else { Vec::new() },
+                if sketch { layer_points(&m.region, y, s_.count, s_.diameter) } else { Vec::new() },
             )
         } else {
             let b = &m.bars[j - ns];
@@ -1404,7 +1447,7 @@ fn record_solution(
                 b.count,
                 b.area,
                 b.diameter,
-                if sketch { layer_points(&m.region, y, b.count) } else { Vec::new() },
+                if sketch { layer_points(&m.region, y, b.count, b.diameter) } else { Vec::new() },
             )
         };
         let out = LayerOut {
@@ -1446,7 +1489,7 @@ fn record_solution(
             .input(sy("C", "C"), cc, Unit::Force)
             .input(sy("Sigma T", "ΣT"), t_sum, Unit::Force)
             .result(cc - t_sum, Unit::Force)
-            .note(format!("closure {closure:.1e} of C (required below 1e-9)"))
+            .note(format!("closure {} of C (required below 10⁻⁹)", crate::trace::sci(closure, 1)))
     });
     let mn_shown = moment_of(model, st) * cv.km;
     tr.rec(|| {

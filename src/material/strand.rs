@@ -7,7 +7,7 @@
 //!   ksi (1725 - 0.276 / (eps - 0.0064) MPa). The handbook rounds the breakpoint; here the
 //!   branches are joined where they actually meet (0.008592 for Grade 270), so the curve
 //!   is continuous. The stress difference at the rounded breakpoint is below 0.05 %.
-//! - `power`: the Devalapura-Tadros power formula for Grade 270 low-relaxation strand
+//! - `power`: the power formula for Grade 270 low-relaxation strand
 //!   (PCI Journal, March-April 1992, as reproduced in the PCI Design Handbook):
 //!   fps = eps [887 + 27,613 / (1 + (112.4 eps)^7.36)^(1/7.36)] <= 270 ksi; the SI form
 //!   is the same curve in MPa (factor 6.894757), capped at 1860 MPa.
@@ -31,7 +31,7 @@ impl Model {
     pub fn name(self) -> &'static str {
         match self {
             Model::Pci => "PCI Design Handbook two-branch curve",
-            Model::Power => "Devalapura-Tadros power formula",
+            Model::Power => "PCI Design Handbook power formula",
         }
     }
 }
@@ -167,14 +167,14 @@ impl Curve {
                         if raw >= 270.0 {
                             Piece { formula: n(270.0), note: "capped at 270 ksi" }
                         } else {
-                            Piece { formula: body, note: "power formula" }
+                            Piece { formula: body, note: "below the cap" }
                         }
                     }
                     System::Si => {
                         if raw >= 1860.0 {
                             Piece { formula: n(1860.0), note: "capped at 1860 MPa" }
                         } else {
-                            Piece { formula: mul(vec![n(KSI_MPA), body]), note: "power formula in ksi x 6.894757" }
+                            Piece { formula: mul(vec![n(KSI_MPA), body]), note: "the ksi curve x 6.894757" }
                         }
                     }
                 }
@@ -235,7 +235,7 @@ mod tests {
         assert!((si.stress(0.02) - (1860.0 - 0.276 / 0.013)).abs() < 1e-9);
     }
 
-    // Devalapura-Tadros power formula (from memory, PCI Journal 1992): at eps = 0.01,
+    // power formula (from memory, PCI Journal 1992): at eps = 0.01,
     // 0.01 [887 + 27613 / (1 + 1.124^7.36)^(1/7.36)] = 243.0 ksi (by hand).
     #[test]
     fn power_formula_values() {

@@ -18,17 +18,8 @@ fn unit_name(u: Unit, sys: System) -> &'static str {
 fn shown_math(v: f64, u: Unit) -> String {
     let (_, _, tag) = scale(u);
     let s = scaled(v, u);
-    let s = if let Some(rest) = s.strip_prefix('-') { format!("-{rest}") } else { s };
-    let s = math_number(&s);
+    let s = crate::trace::math_number(&s);
     if tag.is_empty() { s } else { format!("{s} times {tag}") }
-}
-
-/// Numbers in scientific notation ("9.4e-13") written as Typst math.
-fn math_number(s: &str) -> String {
-    match s.split_once('e') {
-        Some((m, e)) => format!("{m} times 10^({})", e.trim_start_matches('+')),
-        None => s.to_string(),
-    }
 }
 
 /// A step as the templates read it.
@@ -102,11 +93,17 @@ fn location_view(l: &LocationResult, sys: System) -> Value {
                 "method": t.method,
                 "c": show(t.c),
                 "a": show(t.a),
-                "eps": scaled(t.eps, Unit::Strain),
+                // a trial at the bracket's end (c near zero) strains the steel beyond any
+                // real value: such strains are shown as beyond 1000 ‰
+                "eps": if t.eps.abs() >= 1.0 {
+                    if t.eps > 0.0 { "> 1000".to_string() } else { "< −1000".to_string() }
+                } else {
+                    scaled(t.eps, Unit::Strain)
+                },
                 "stress": show(t.stress),
                 "cc": show(t.cc),
                 "t": show(t.t),
-                "residual": if t.residual == 0.0 { "0".to_string() } else { format!("{:.2e}", t.residual) },
+                "residual": if t.residual == 0.0 { "0".to_string() } else { crate::trace::sci(t.residual, 2) },
             })
         })
         .collect();
@@ -155,7 +152,7 @@ fn location_view(l: &LocationResult, sys: System) -> Value {
             "e": show(l.e),
             "cc": show(l.cc),
             "dc": show(l.dc),
-            "closure": format!("{:.1e}", l.closure),
+            "closure": crate::trace::sci(l.closure, 1),
             "trials": l.iterations.len().to_string(),
             "approx_mn": opt(l.approximate.mn),
             "approx_fps": opt(l.approximate.fps),
@@ -280,8 +277,8 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
     row(
         "Member kind",
         match input.kind {
-            crate::input::model::Kind::Beam => "beam (ACI 318-19 Ch. 9)".to_string(),
-            crate::input::model::Kind::OneWaySlab => "one-way slab (ACI 318-19 Ch. 7)".to_string(),
+            crate::input::model::Kind::Beam => format!("beam ({} Ch. 9)", crate::analysis::code(sys)),
+            crate::input::model::Kind::OneWaySlab => format!("one-way slab ({} Ch. 7)", crate::analysis::code(sys)),
         },
     );
     let strands: Vec<Value> = input
@@ -457,6 +454,8 @@ pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Va
                     "phi": show(l.phi),
                     "min": if l.min_reinforcement.ok { "met" } else if l.min_reinforcement.waiver_flexure { "waived (see sheet)" } else { "not met" },
                     "pass": l.pass,
+                    // adequate on a condition or with a caution the conclusion states
+                    "caution": l.pass && (l.rupture_risk || !l.min_reinforcement.ok),
                     "governing": i == m.governing,
                 })
             })

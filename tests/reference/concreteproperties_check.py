@@ -8,7 +8,7 @@ depth c (in) and the nominal moment Mn (kip-ft) that the library's ultimate anal
 gives under the same assumptions as strainsheet: rectangular block alpha = 0.85,
 gamma = beta1 (ACI 318-19 Table 22.2.2.4.3), eps_cu = 0.003, no concrete tension,
 bars elastic-perfectly-plastic (Es = 29,000 ksi, fy = 60 ksi), Grade 270 strand by the
-Devalapura-Tadros power formula.
+power formula (PCI Design Handbook).
 
 How the assumptions are matched (read from the library's source, version below):
 
@@ -80,7 +80,7 @@ ECU = 0.003
 
 
 def power(eps: float) -> float:
-    """The Devalapura-Tadros power formula for Grade 270 strand, ksi."""
+    """The power formula (PCI Design Handbook) for Grade 270 strand, ksi."""
     return min(eps * (887.0 + 27_613.0 / (1.0 + (112.4 * eps) ** 7.36) ** (1.0 / 7.36)), FPU)
 
 
