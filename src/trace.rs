@@ -415,6 +415,9 @@ pub fn fixed(v: f64, decimals: usize) -> String {
     s
 }
 
+/// The digits 0 to 9 raised, for the exponents [`sci`] writes and [`math_number`] reads.
+const SUPERSCRIPT_DIGITS: &str = "⁰¹²³⁴⁵⁶⁷⁸⁹";
+
 /// A value in scientific notation as a reader writes it: `decimals` digits after the
 /// mantissa's point and a power of ten with a superscript exponent, "4.3×10⁻¹⁵", and
 /// a true minus sign.
@@ -432,16 +435,7 @@ pub fn sci(v: f64, decimals: usize) -> String {
         .chars()
         .map(|c| match c {
             '-' => '⁻',
-            '0' => '⁰',
-            '1' => '¹',
-            '2' => '²',
-            '3' => '³',
-            '4' => '⁴',
-            '5' => '⁵',
-            '6' => '⁶',
-            '7' => '⁷',
-            '8' => '⁸',
-            _ => '⁹',
+            d => c.to_digit(10).and_then(|i| SUPERSCRIPT_DIGITS.chars().nth(i as usize)).unwrap_or(d),
         })
         .collect();
     format!("{mantissa}×10{sup}")
@@ -455,19 +449,10 @@ pub fn math_number(s: &str) -> String {
     if let Some((m, e)) = s.split_once("×10") {
         let e: String = e
             .chars()
-            .map(|c| match c {
-                '⁻' => '-',
-                '⁰' => '0',
-                '¹' => '1',
-                '²' => '2',
-                '³' => '3',
-                '⁴' => '4',
-                '⁵' => '5',
-                '⁶' => '6',
-                '⁷' => '7',
-                '⁸' => '8',
-                '⁹' => '9',
-                other => other,
+            .map(|c| match SUPERSCRIPT_DIGITS.chars().position(|d| d == c) {
+                Some(i) => char::from(b'0' + i as u8),
+                None if c == '⁻' => '-',
+                None => c,
             })
             .collect();
         return format!("{m} times 10^({e})");

@@ -51,6 +51,12 @@ fn check(name: &str, member: &str, c_ref: f64, mn_ref: f64) -> f64 {
     eps2
 }
 
+/// [`check`], and the decompression strain eps2 the script computed and gave the library.
+fn check_prestressed(name: &str, member: &str, c_ref: f64, mn_ref: f64, eps2_ref: f64) {
+    let eps2 = check(name, member, c_ref, mn_ref);
+    assert!(rel(eps2, eps2_ref) < 1e-8, "{name}: eps2 = {eps2}, the script's {eps2_ref}");
+}
+
 fn rectangle(fse: f64) -> String {
     format!(
         "[[member]]\nid = \"R\"\nmu = 10.0\n[member.concrete]\nfc = 5.0\n[member.section]\nshape = \"rectangle\"\nwidth = 12.0\nheight = 24.0\n[[member.strands]]\ndepth = 21.0\ncount = 4\ndiameter = 0.5\nfse = {fse:.1}\nmodel = \"power\"\n"
@@ -78,10 +84,8 @@ fn rectangle_without_prestrain() {
 fn rectangle_prestressed() {
     // concreteproperties 0.8.0 (PyPI), run by tests/reference/concreteproperties_check.py on 2026-12-02:
     // c = 3.93388563 in, Mn = 259.832851 kip-ft (case RECT160, prestrain eps1 + eps2)
-    let eps2 = check("RECT160", &rectangle(160.0), 3.93388563, 259.832851);
-    // concreteproperties 0.8.0 (PyPI), run by tests/reference/concreteproperties_check.py on 2026-12-02:
-    // eps2 = 0.000226708358 (computed by the script from the gross section, given to the library)
-    assert!(rel(eps2, 0.000226708358) < 1e-8, "eps2 = {eps2}");
+    // and eps2 = 0.000226708358 (computed by the script from the gross section, given to the library)
+    check_prestressed("RECT160", &rectangle(160.0), 3.93388563, 259.832851, 0.000226708358);
 }
 
 // Tee: flange 24 x 3 in, web 8 in, h = 30 in, f'c = 6 ksi (beta1 = 0.75), 10 x 1/2 in
@@ -98,10 +102,8 @@ fn tee_block_in_web_without_prestrain() {
 fn tee_block_in_web_prestressed() {
     // concreteproperties 0.8.0 (PyPI), run by tests/reference/concreteproperties_check.py on 2026-12-02:
     // c = 5.10668067 in, Mn = 846.857726 kip-ft (case TEE150, prestrain eps1 + eps2)
-    let eps2 = check("TEE150", &tee(150.0), 5.10668067, 846.857726);
-    // concreteproperties 0.8.0 (PyPI), run by tests/reference/concreteproperties_check.py on 2026-12-02:
-    // eps2 = 0.000597253351 (computed by the script from the gross section, given to the library)
-    assert!(rel(eps2, 0.000597253351) < 1e-8, "eps2 = {eps2}");
+    // and eps2 = 0.000597253351 (computed by the script from the gross section, given to the library)
+    check_prestressed("TEE150", &tee(150.0), 5.10668067, 846.857726, 0.000597253351);
 }
 
 // Box: 36 x 20 in with a 24 x 14 in rectangular hole (walls 3 in top and bottom, 6 in at

@@ -353,11 +353,10 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("M_\"nc\"", "Mnc"), mnc, Unit::Moment)
                     .input(sy("S_b", "Sb"), sb, Unit::Modulus)
                     .result(mcr, Unit::Moment)
-                    .clause(if is_slab(p.m) {
-                        "ACI 318-19 7.6.2.1, 19.2.3 (PCI Design Handbook form for composite members)"
-                    } else {
-                        "ACI 318-19 9.6.2.1, 19.2.3 (PCI Design Handbook form for composite members)"
-                    })
+                    .clause(format!(
+                        "ACI 318-19 {}, 19.2.3 (PCI Design Handbook form for composite members)",
+                        minimum_clause(p)
+                    ))
                     .note("Mnc: moment on the precast unit before the topping acts")
             });
             mcr
@@ -371,11 +370,16 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("f_r", "fr"), fr, Unit::Stress)
                     .input(sy("f_\"pe\"", "fpe"), fpe, Unit::Stress)
                     .result(mcr, Unit::Moment)
-                    .clause(if is_slab(p.m) { "ACI 318-19 7.6.2.1, 19.2.3" } else { "ACI 318-19 9.6.2.1, 19.2.3" })
+                    .clause(format!("ACI 318-19 {}, 19.2.3", minimum_clause(p)))
             });
             mcr
         }
     }
+}
+
+/// The minimum-flexural-strength clause: 7.6.2.1 for one-way slabs, 9.6.2.1 for beams.
+fn minimum_clause(p: &Prepared) -> &'static str {
+    if is_slab(p.m) { "7.6.2.1" } else { "9.6.2.1" }
 }
 
 pub(super) fn minimum(p: &Prepared, li: usize, mcr: f64, phi_mn: f64, mu: f64, tr: &mut Trace) -> MinReinforcement {

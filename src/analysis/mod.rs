@@ -541,23 +541,6 @@ fn record_concrete(
 }
 
 /// The points of a layer for the sketch: spread evenly along the concrete at its level.
-/// The stretches of concrete cut by the horizontal line y, left to right.
-fn concrete_at(region: &Region, y: f64) -> Vec<(f64, f64)> {
-    let mut xs: Vec<f64> = Vec::new();
-    for ring in region.rings() {
-        let Some(&last) = ring.last() else { continue };
-        let mut p = last;
-        for &q in ring {
-            if (p[1] <= y) != (q[1] <= y) {
-                xs.push(p[0] + (y - p[1]) / (q[1] - p[1]) * (q[0] - p[0]));
-            }
-            p = q;
-        }
-    }
-    xs.sort_by(f64::total_cmp);
-    xs.chunks(2).filter(|c| c.len() == 2).map(|c| (c[0], c[1])).collect()
-}
-
 /// Where both sets of stretches have concrete.
 fn common(a: &[(f64, f64)], b: &[(f64, f64)]) -> Vec<(f64, f64)> {
     let mut out = Vec::new();
@@ -577,9 +560,9 @@ fn common(a: &[(f64, f64)], b: &[(f64, f64)]) -> Vec<(f64, f64)> {
 /// not fit there, over the concrete at y.
 fn layer_points(region: &Region, y: f64, count: u32, d: f64) -> Vec<P> {
     let r = d / 2.0;
-    let band = common(&concrete_at(region, y), &common(&concrete_at(region, y - r), &concrete_at(region, y + r)));
+    let band = common(&region.stretches_at(y), &common(&region.stretches_at(y - r), &region.stretches_at(y + r)));
     let fits: f64 = band.iter().map(|(a, b)| ((b - a) / d).floor()).sum();
-    let (intervals, inset) = if fits >= count as f64 { (band, r) } else { (concrete_at(region, y), 0.0) };
+    let (intervals, inset) = if fits >= count as f64 { (band, r) } else { (region.stretches_at(y), 0.0) };
     let intervals: Vec<(f64, f64)> =
         intervals.into_iter().filter(|(a, b)| b - a > 2.0 * inset).map(|(a, b)| (a + inset, b - inset)).collect();
     let total: f64 = intervals.iter().map(|(a, b)| b - a).sum();
@@ -1047,7 +1030,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
             .input(sy("phi", "phi"), phi, Unit::Ratio)
             .input(sy("M_n", "Mn"), mn, Unit::Moment)
             .result(phi_mn, Unit::Moment)
-            .clause(if is_slab(p.m) { "ACI 318-19 7.5.1.1" } else { "ACI 318-19 9.5.1.1" })
+            .clause(format!("ACI 318-19 {}", if is_slab(p.m) { "7.5.1.1" } else { "9.5.1.1" }))
     });
     tr.rec(|| {
         Step::new("checks", tag("ratio"), "Demand to capacity ratio", sy("\"ratio\"", "ratio"))

@@ -95,6 +95,18 @@ fn signed_area(ring: &[P]) -> f64 {
 }
 
 #[inline]
+/// The x where each edge of a ring crosses the horizontal line y, appended to `xs`.
+fn crossings(ring: &[P], y: f64, xs: &mut Vec<f64>) {
+    let Some(&last) = ring.last() else { return };
+    let mut p = last;
+    for &q in ring {
+        if (p[1] <= y) != (q[1] <= y) {
+            xs.push(cut(p, q, y)[0]);
+        }
+        p = q;
+    }
+}
+
 fn cut(p: P, q: P, y0: f64) -> P {
     let t = (y0 - p[1]) / (q[1] - p[1]);
     [p[0] + t * (q[0] - p[0]), y0]
@@ -275,14 +287,7 @@ impl Region {
     pub fn width_at(&self, y: f64) -> f64 {
         fn chords(ring: &[P], y: f64) -> f64 {
             let mut xs: Vec<f64> = Vec::new();
-            let Some(&last) = ring.last() else { return 0.0 };
-            let mut p = last;
-            for &q in ring {
-                if (p[1] <= y) != (q[1] <= y) {
-                    xs.push(cut(p, q, y)[0]);
-                }
-                p = q;
-            }
+            crossings(ring, y, &mut xs);
             xs.sort_by(f64::total_cmp);
             xs.chunks(2).map(|c| if c.len() == 2 { c[1] - c[0] } else { 0.0 }).sum()
         }
@@ -291,6 +296,16 @@ impl Region {
             w -= chords(h, y);
         }
         w.max(0.0)
+    }
+
+    /// The stretches of concrete [x0, x1] cut by the horizontal line y, left to right.
+    pub fn stretches_at(&self, y: f64) -> Vec<(f64, f64)> {
+        let mut xs: Vec<f64> = Vec::new();
+        for ring in self.rings() {
+            crossings(ring, y, &mut xs);
+        }
+        xs.sort_by(f64::total_cmp);
+        xs.chunks(2).filter(|c| c.len() == 2).map(|c| (c[0], c[1])).collect()
     }
 
     /// The extent [x0, x1] of the outline's top edge (vertices at the top level).
