@@ -428,17 +428,21 @@ pub fn sci(v: f64, decimals: usize) -> String {
     let s = format!("{v:.decimals$e}");
     let (mantissa, exp) = s.split_once('e').unwrap_or((&s, "0"));
     let mantissa = mantissa.replace('-', "−");
-    if exp == "0" {
-        return mantissa;
+    match exp.parse::<i32>() {
+        Ok(0) | Err(_) => mantissa,
+        Ok(e) => format!("{mantissa}×10{}", superscript(e)),
     }
-    let sup: String = exp
+}
+
+/// An exponent written raised: -15 as "⁻¹⁵".
+fn superscript(e: i32) -> String {
+    e.to_string()
         .chars()
-        .map(|c| match c {
-            '-' => '⁻',
-            d => c.to_digit(10).and_then(|i| SUPERSCRIPT_DIGITS.chars().nth(i as usize)).unwrap_or(d),
+        .map(|c| match c.to_digit(10) {
+            Some(i) => SUPERSCRIPT_DIGITS.chars().nth(i as usize).unwrap_or(c),
+            None => '⁻',
         })
-        .collect();
-    format!("{mantissa}×10{sup}")
+        .collect()
 }
 
 /// A shown number as Typst math: "4.3×10⁻¹⁵" (see [`sci`]) or "4.3e-15" becomes
@@ -472,6 +476,18 @@ pub fn show(v: f64) -> String {
     let a = v.abs();
     if a != 0.0 && a < 1e-4 {
         return sci(v, 1);
+    }
+    if a >= 1e6 {
+        // engineering form: four figures times a power of ten that is a multiple of 3,
+        // "1.344×10⁹" for a moment of inertia in mm⁴
+        let mut e = (a.log10().floor() as i32).div_euclid(3) * 3;
+        let mut m = show(v / 10f64.powi(e));
+        // 999.95 rounds up to "1000.0": take the next power instead
+        if m.trim_start_matches('-').parse::<f64>().is_ok_and(|x| x >= 1000.0) {
+            e += 3;
+            m = show(v / 10f64.powi(e));
+        }
+        return format!("{}×10{}", m.replace('-', "−"), superscript(e));
     }
     let decimals = if a >= 1000.0 {
         0
@@ -728,6 +744,10 @@ mod tests {
         assert_eq!(sci(-220.0, 2), "−2.20×10²");
         assert_eq!(sci(3.49, 2), "3.49");
         assert_eq!(sci(f64::NAN, 1), "—");
+        assert_eq!(show(1_344_198_284.0), "1.344×10⁹");
+        assert_eq!(show(10_753_586.0), "10.75×10⁶");
+        assert_eq!(show(-999_999_999.0), "−1.00×10⁹");
+        assert_eq!(show(999_999.0), "999999");
         assert_eq!(math_number("−4.3×10⁻¹⁵"), "-4.3 times 10^(-15)");
         assert_eq!(math_number("9.4e-13"), "9.4 times 10^(-13)");
         assert_eq!(math_number("−12.5"), "-12.5");
