@@ -5,9 +5,27 @@
 
 use crate::analysis::{Analysis, LocationResult, MemberResult};
 use crate::input::{Package, Source};
-use crate::trace::{Step, Style, Unit, scale, scaled, show};
+use crate::trace::{Step, Style, Unit, scale};
 use crate::units::System;
 use serde_json::{Value, json};
+
+/// A number as the sheets print it: [`crate::trace::show`] with a true minus sign (the
+/// plain trace and `check` keep the ASCII hyphen, which tools read).
+fn show(v: f64) -> String {
+    minus(crate::trace::show(v))
+}
+
+/// [`crate::trace::scaled`] with a true minus sign.
+fn scaled(v: f64, u: Unit) -> String {
+    minus(crate::trace::scaled(v, u))
+}
+
+fn minus(s: String) -> String {
+    match s.strip_prefix('-') {
+        Some(rest) => format!("−{rest}"),
+        None => s,
+    }
+}
 
 /// What the templates print for a unit.
 fn unit_name(u: Unit, sys: System) -> &'static str {
@@ -239,9 +257,9 @@ fn curve_view(c: &crate::analysis::curve::CurveResult, l: &LocationResult, sys: 
 
 /// A tick label: short, no trailing zeros.
 fn show_tick(t: f64) -> String {
-    let s = format!("{:.3}", t);
+    let s = crate::trace::fixed(t, 3);
     let s = s.trim_end_matches('0').trim_end_matches('.');
-    if s == "-0" { "0".into() } else { s.to_string() }
+    if s == "-0" { "0".into() } else { minus(s.to_string()) }
 }
 
 fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: System) -> Value {
