@@ -358,6 +358,12 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
         .initial(0.0, scale_n, scale_m, h)
         .ok_or_else(|| fail(m, loc, "no equilibrium of the prestressed precast unit"))?;
     let stage1 = if mnc > 0.0 { 10 } else { 0 };
+    if f.precast_strain(&start, f.y_top_p) >= eps_cr {
+        notes.push(format!(
+            "Under the prestress alone{} the top of the precast unit is in tension beyond the cracking strain fr / Ec: it cracks before any moment acts, so the curve starts at a negative (cambering) curvature and rises softly until the top closes.",
+            if mnc > 0.0 { "" } else { " (no moment acts on the member at the start of this curve, not even its self-weight)" }
+        ));
+    }
     pts.push(point(&start, true, 0.0));
     let mut base = start;
     for j in 1..=stage1 {
