@@ -1042,6 +1042,17 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
     });
     let strength_ok = ratio <= 1.0;
 
+    if let (true, Some(x), Some(len)) = (loc.mnc_scaled && p.m.mnc > 0.0, loc.x, p.m.length) {
+        tr.rec(|| {
+            Step::new("cracking", tag("Mnc"), "Non-composite moment at this section", sy("M_\"nc\"", "Mnc"))
+                .formula(mul(vec![v(0), div(mul(vec![n(4.0), v(1), sub(v(2), v(1))]), pow(v(2), n(2.0)))]))
+                .input(sy("M_(\"nc\",\"mid\")", "Mnc,mid"), p.m.mnc * cv.km, Unit::Moment)
+                .input(sy("x", "x"), x, Unit::Length)
+                .input(sy("L", "L"), len, Unit::Length)
+                .result(loc.mnc * cv.km, Unit::Moment)
+                .note("the member's midspan value, scaled as for a uniformly loaded simple span (the location gives none)")
+        });
+    }
     let mcr = checks::cracking(p, li, pe, e, loc.mnc, &mut tr);
     let minr = checks::minimum(p, li, mcr, phi_mn, mu, &mut tr);
     let approx =

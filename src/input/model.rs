@@ -230,6 +230,8 @@ pub struct Location {
     pub mu: f64,
     /// Non-composite moment on the precast unit at this location (topped members).
     pub mnc: f64,
+    /// Whether `mnc` was scaled from the member's midspan value (the location gives none).
+    pub mnc_scaled: bool,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]

@@ -1512,6 +1512,7 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
         if l.x.is_none() {
             cx.problem("x", "x is missing", Some("the location's distance from the member end".to_string()));
         }
+        let mnc_scaled = l.mnc.is_none() && length.is_some() && x.is_some() && m.topping.is_some();
         let lmnc = match &l.mnc {
             Some(_) => cx.ranged("mnc", &l.mnc, Dim::Moment, 0.0, f64::MAX, false),
             None => match (length, x) {
@@ -1528,7 +1529,7 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
             },
         };
         if let (Some(lmu), Some(x), Some(lmnc)) = (lmu, x, lmnc) {
-            locations.push(Location { name, x: Some(x), mu: lmu, mnc: lmnc });
+            locations.push(Location { name, x: Some(x), mu: lmu, mnc: lmnc, mnc_scaled });
         }
         cx.leave();
         cx.leave();
@@ -1536,8 +1537,12 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     if m.location.is_empty() {
         match mu {
             Some(mu) => match length {
-                Some(l) => locations.push(Location { name: "midspan".into(), x: Some(l / 2.0), mu, mnc }),
-                None => locations.push(Location { name: "critical section".into(), x: None, mu, mnc }),
+                Some(l) => {
+                    locations.push(Location { name: "midspan".into(), x: Some(l / 2.0), mu, mnc, mnc_scaled: false })
+                }
+                None => {
+                    locations.push(Location { name: "critical section".into(), x: None, mu, mnc, mnc_scaled: false })
+                }
             },
             None => cx.problem(
                 "mu",
