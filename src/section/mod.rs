@@ -291,9 +291,13 @@ impl Region {
             xs.sort_by(f64::total_cmp);
             xs.chunks(2).map(|c| if c.len() == 2 { c[1] - c[0] } else { 0.0 }).sum()
         }
-        let mut w = chords(&self.outline, y);
-        for h in &self.holes {
-            w -= chords(h, y);
+        // a ring that does not span y has no chord there (the test of `crossings`)
+        let spans = |info: &RingInfo| y >= info.y_min && y < info.y_max;
+        let mut w = if spans(&self.cache[0]) { chords(&self.outline, y) } else { 0.0 };
+        for (h, info) in self.holes.iter().zip(&self.cache[1..]) {
+            if spans(info) {
+                w -= chords(h, y);
+            }
         }
         w.max(0.0)
     }
@@ -301,8 +305,10 @@ impl Region {
     /// The stretches of concrete [x0, x1] cut by the horizontal line y, left to right.
     pub fn stretches_at(&self, y: f64) -> Vec<(f64, f64)> {
         let mut xs: Vec<f64> = Vec::new();
-        for ring in self.rings() {
-            crossings(ring, y, &mut xs);
+        for (ring, info) in self.rings().zip(&self.cache) {
+            if y >= info.y_min && y < info.y_max {
+                crossings(ring, y, &mut xs);
+            }
         }
         xs.sort_by(f64::total_cmp);
         xs.chunks(2).filter(|c| c.len() == 2).map(|c| (c[0], c[1])).collect()
