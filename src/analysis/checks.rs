@@ -147,6 +147,21 @@ pub(super) fn development(
     let ltr = dev.transfer_length;
     if xb >= ld {
         dev.state = "fully developed";
+        tr.rec(|| {
+            Step::new(
+                "development",
+                tag(li, &format!("dev.full.{k}")),
+                format!("Bonded length against the development length, layer {k}"),
+                si("x", "b", "xb", k),
+            )
+            .result(xb, Unit::Length)
+            .clause("ACI 318-19 25.4.8.3")
+            .note(format!(
+                "at least ℓd = {} {}: the strand is fully developed here and its stress is not limited",
+                show(ld),
+                p.sys.names().length
+            ))
+        });
         return None;
     }
     let cap = if xb <= ltr {
