@@ -1408,7 +1408,7 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
                 None => {
                     defaults.push(Default {
                         key: "topping.block".into(),
-                        text: "where the stress block is deeper than the topping, the topping's f'c and beta1 are used over the whole block".into(),
+                        text: "where the stress block is deeper than the topping, the topping's f'c and β1 are used over the whole block".into(),
                     });
                     Some(BlockMode::Topping)
                 }
