@@ -1224,7 +1224,7 @@ fn record_solution(
             .input(sy("beta_1", "beta1"), p.beta1, Unit::Ratio)
             .input(sy("c", "c"), c, Unit::Length);
         if a < p.beta1 * c {
-            st_.result(a, Unit::Length).note("beta1 c exceeds the section depth: the whole section is in compression")
+            st_.result(a, Unit::Length).note("β1 c exceeds the section depth: the whole section is in compression")
         } else {
             st_.formula(mul(vec![v(0), v(1)]))
                 .result(a, Unit::Length)
