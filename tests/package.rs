@@ -8,6 +8,24 @@ use strainsheet::input::{self, Source};
 
 const EXAMPLES: [&str; 3] = ["parking-double-tee.toml", "inverted-tee-girder.toml", "hollow-core-plank.toml"];
 
+/// The examples, and a package of ten members: typeset in three runs of members, whose
+/// sheets are joined (the examples fit in one run).
+fn packages() -> Vec<(String, strainsheet::input::Package, strainsheet::report::Rendered)> {
+    let mut out: Vec<_> = EXAMPLES
+        .iter()
+        .map(|ex| {
+            let (pkg, r) = render_example(ex);
+            (ex.to_string(), pkg, r)
+        })
+        .collect();
+    let src = Source { name: "ten.toml".into(), text: replicated("parking-double-tee.toml", 10) };
+    let pkg = input::parse(&src).unwrap();
+    assert_eq!(pkg.members.len(), 10);
+    let r = render(&pkg, &src);
+    out.push(("ten members".into(), pkg, r));
+    out
+}
+
 #[test]
 fn same_input_same_bytes() {
     for ex in EXAMPLES {
@@ -16,12 +34,15 @@ fn same_input_same_bytes() {
         assert!(a.pdf == b.pdf, "{ex}: two renders differ");
         assert_eq!(a.hash, b.hash);
     }
+    // runs of members typeset in parallel and joined
+    let src = Source { name: "ten.toml".into(), text: replicated("parking-double-tee.toml", 10) };
+    let pkg = input::parse(&src).unwrap();
+    assert!(render(&pkg, &src).pdf == render(&pkg, &src).pdf, "ten members: two renders differ");
 }
 
 #[test]
 fn every_sheet_has_title_block_hash_and_draft_mark() {
-    for ex in EXAMPLES {
-        let (pkg, r) = render_example(ex);
+    for (ex, pkg, r) in packages() {
         let n = pages(&r.pdf);
         assert_eq!(n, r.pages);
         let draft = pkg.meta.is_draft();
@@ -32,8 +53,10 @@ fn every_sheet_has_title_block_hash_and_draft_mark() {
             assert!(t.contains(&pkg.meta.project), "{ex} sheet {p}: no project name");
             assert_eq!(t.contains("DRAFT"), draft, "{ex} sheet {p}: DRAFT mark should be {draft}");
         }
-        // the full hash on the cover
-        assert!(pdftotext(&r.pdf, Some(1)).contains(&r.hash), "{ex}: the cover lacks the full hash");
+        // the full hash and the number of sheets on the cover
+        let cover = pdftotext(&r.pdf, Some(1));
+        assert!(cover.contains(&r.hash), "{ex}: the cover lacks the full hash");
+        assert!(cover.contains(&format!("{n}, this cover included")), "{ex}: the cover's sheet count is not {n}");
     }
 }
 
@@ -254,9 +277,9 @@ fn sidecar_reads_with_sha256sum() {
 // sheet must be the sheet where that part begins, and no row may lack its sheet.
 #[test]
 fn contents_points_at_the_right_sheets() {
-    for ex in EXAMPLES {
-        let (pkg, r) = render_example(ex);
-        let contents = pdftotext(&r.pdf, Some(2));
+    for (ex, pkg, r) in packages() {
+        // the contents of ten members runs over two sheets
+        let contents = pdftotext(&r.pdf, Some(2)) + &pdftotext(&r.pdf, Some(3));
         assert!(!contents.contains('—'), "{ex}: a contents row has no sheet:\n{contents}");
         let sheet_of = |needle: &str| -> usize {
             let line = contents
@@ -283,7 +306,9 @@ fn contents_points_at_the_right_sheets() {
                 );
             }
         }
-        let s = sheet_of("Summary of members");
-        assert!(pdftotext(&r.pdf, Some(s)).contains("Summary of members"), "{ex}: summary not on sheet {s}");
+        for part in ["Summary of members", "Cautions", "Appendix: the input file"] {
+            let s = sheet_of(part);
+            assert!(pdftotext(&r.pdf, Some(s)).contains(part), "{ex}: {part} not on sheet {s}");
+        }
     }
 }

@@ -6,10 +6,26 @@ mod common;
 use common::*;
 use std::path::Path;
 
-fn template_dir(main: &str) -> tempfile::TempDir {
+/// The three entry templates a folder must hold, each as small as it may be: the front
+/// and back matter with the anchor where the back matter begins, a run of members, and
+/// one page per sheet for the numbers.
+const MINIMAL: [(&str, &str); 3] = [
+    ("package.typ", "Front\n#pagebreak()\n#metadata(\"toc:summary\") <toc:summary>\nBack\n"),
+    ("members.typ", "#for m in json(\"view.json\").members [#m.id #pagebreak(weak: true)]\n"),
+    ("stamps.typ", "#for _ in range(json(\"view.json\").stamp.total - 1) { pagebreak() }\n"),
+];
+
+/// A template folder of the minimal templates with `entry` holding `text` instead.
+fn template_dir_with(entry: &str, text: &str) -> tempfile::TempDir {
     let dir = tempfile::tempdir().unwrap();
-    std::fs::write(dir.path().join("package.typ"), main).unwrap();
+    for (name, minimal) in MINIMAL {
+        std::fs::write(dir.path().join(name), if name == entry { text } else { minimal }).unwrap();
+    }
     dir
+}
+
+fn template_dir(main: &str) -> tempfile::TempDir {
+    template_dir_with("package.typ", main)
 }
 
 fn report_with(templates: &Path, out: &Path) -> (Option<i32>, String) {
@@ -43,23 +59,55 @@ fn a_template_cannot_read_outside_its_folder() {
         r#"#read("../../../../../../etc/passwd")"#.to_string(),
         r#"#read("/proc/self/environ")"#.to_string(),
     ];
-    for a in attempts {
-        let dir = template_dir(&format!("{a}\n"));
-        let out = outside.path().join("out.pdf");
-        let (code, err) = report_with(dir.path(), &out);
-        assert_eq!(code, Some(2), "{a}: {err}");
-        assert!(err.contains("package.typ:1"), "{a}: the error does not point at the template: {err}");
-        assert!(!err.contains("top secret") && !err.contains("root:"), "{a}: leaked");
-        assert!(!out.exists(), "{a}: wrote a file");
+    // every entry template runs in the same sandbox
+    for (entry, _) in MINIMAL {
+        for a in &attempts {
+            let dir = template_dir_with(entry, &format!("{a}\n"));
+            let out = outside.path().join("out.pdf");
+            let (code, err) = report_with(dir.path(), &out);
+            assert_eq!(code, Some(2), "{entry}: {a}: {err}");
+            assert!(
+                err.contains(&format!("{entry}:1")),
+                "{entry}: {a}: the error does not point at the template: {err}"
+            );
+            assert!(!err.contains("top secret") && !err.contains("root:"), "{entry}: {a}: leaked");
+            assert!(!out.exists(), "{entry}: {a}: wrote a file");
+        }
     }
     // the package's own data is readable
     let dir = template_dir(
-        "#set document(date: datetime(year: 2026, month: 1, day: 1))\n#pdf.attach(\"payload.json\", relationship: \"data\", mime-type: \"application/json\", description: \"p\")\n#json(\"view.json\").package.project\n",
+        "#set document(date: datetime(year: 2026, month: 1, day: 1))\n#pdf.attach(\"payload.json\", relationship: \"data\", mime-type: \"application/json\", description: \"p\")\n#json(\"view.json\").package.project\n#pagebreak()\n#metadata(\"toc:summary\") <toc:summary>\n",
     );
     let out = outside.path().join("ok.pdf");
     let (code, err) = report_with(dir.path(), &out);
     assert_eq!(code, Some(0), "{err}");
-    assert!(pdftotext(&std::fs::read(&out).unwrap(), None).contains("Saltmarsh Quay Residences"));
+    let text = pdftotext(&std::fs::read(&out).unwrap(), None);
+    assert!(text.contains("Saltmarsh Quay Residences"), "{text}");
+}
+
+#[test]
+fn a_template_folder_needs_the_three_entries() {
+    let dir = template_dir("Hello\n");
+    std::fs::remove_file(dir.path().join("stamps.typ")).unwrap();
+    let out = dir.path().join("out.pdf");
+    let (code, err) = report_with(dir.path(), &out);
+    assert_eq!(code, Some(2), "{err}");
+    assert!(err.contains("no stamps.typ") && err.contains("members.typ"), "{err}");
+    assert!(!out.exists());
+}
+
+#[test]
+fn the_entries_must_keep_their_contract() {
+    // no anchor where the back matter begins
+    let dir = template_dir("Hello\n");
+    let (code, err) = report_with(dir.path(), &dir.path().join("a.pdf"));
+    assert_eq!(code, Some(2), "{err}");
+    assert!(err.contains("toc:summary"), "{err}");
+    // one page of numbers too few
+    let dir = template_dir_with("stamps.typ", "#for _ in range(json(\"view.json\").stamp.total - 2) { pagebreak() }\n");
+    let (code, err) = report_with(dir.path(), &dir.path().join("b.pdf"));
+    assert_eq!(code, Some(2), "{err}");
+    assert!(err.contains("stamps.typ made") && err.contains("one per sheet"), "{err}");
 }
 
 #[cfg(unix)]

@@ -7,15 +7,24 @@ pub mod world;
 use crate::analysis::Analysis;
 use crate::error::{Error, Result};
 use crate::input::{Package, Source};
+use serde_json::{Map, Value, json};
 use std::collections::BTreeMap;
 use std::path::Path;
-use typst::foundations::{Datetime, Smart};
-use typst_layout::PagedDocument;
+use typst::comemo;
+use typst::diag::Warned;
+use typst::ecow::EcoVec;
+use typst::foundations::{Bytes, Datetime, NativeElement, Smart};
+use typst::introspection::{Introspector, MetadataElem};
+use typst::layout::Point;
+use typst::model::Document;
+use typst_layout::{Page, PagedDocument};
 use typst_pdf::{PdfOptions, PdfStandard, PdfStandards, Timestamp};
 
 /// The built-in templates, embedded at build time.
 const BUILTIN: &[(&str, &str)] = &[
     ("package.typ", include_str!("../../templates/package.typ")),
+    ("members.typ", include_str!("../../templates/members.typ")),
+    ("stamps.typ", include_str!("../../templates/stamps.typ")),
     ("sheet.typ", include_str!("../../templates/sheet.typ")),
     ("member.typ", include_str!("../../templates/member.typ")),
     ("figures.typ", include_str!("../../templates/figures.typ")),
@@ -25,8 +34,26 @@ const BUILTIN: &[(&str, &str)] = &[
 /// Names the world reserves for the package's data.
 pub const DATA_FILES: &[&str] = &["payload.json", "view.json", "seal.json", "input.toml"];
 
-/// The entry template.
+/// The entry template of the front and back matter.
 pub const MAIN: &str = "/package.typ";
+/// The entry template of a run of members.
+pub const MEMBERS: &str = "/members.typ";
+/// The entry template of the sheet numbers.
+pub const STAMPS: &str = "/stamps.typ";
+/// The entry templates every template folder must hold.
+const ENTRIES: [&str; 3] = [MAIN, MEMBERS, STAMPS];
+
+/// Members typeset in one Typst run. Typst's memory grows with the sheets of a run
+/// (about 1.7 MB a sheet); a few members at a time keep the peak low whatever the length
+/// of the package, at little cost in time.
+const MEMBERS_PER_RUN: usize = 4;
+/// Runs of members typeset at the same time.
+const PARALLEL_RUNS: usize = 2;
+/// At most this many runs of members (longer packages put more members in a run). Each
+/// run serves its files under a folder of its own, and Typst keeps a file id for every
+/// path it reads for the life of the process, at most 65,535: 200 runs of at most
+/// [`MAX_TEMPLATE_FILES`] files each stay well inside.
+const MAX_RUNS: usize = 200;
 
 /// Limits on a template folder.
 const MAX_TEMPLATE_FILES: usize = 200;
@@ -46,7 +73,8 @@ impl Templates {
     }
 
     /// Reads a template folder: regular files only (links are refused), at most
-    /// [`MAX_TEMPLATE_FILES`] files and 20 MiB. The folder must hold `package.typ`.
+    /// [`MAX_TEMPLATE_FILES`] files and 20 MiB. The folder must hold the three entry
+    /// templates: `package.typ`, `members.typ` and `stamps.typ`.
     pub fn from_dir(dir: &Path) -> Result<Templates> {
         let mut files = BTreeMap::new();
         let mut total = 0u64;
@@ -90,8 +118,13 @@ impl Templates {
                 files.insert(format!("/{vrel}"), bytes);
             }
         }
-        if !files.contains_key(MAIN) {
-            return Err(Error::Usage(format!("{}: the template folder has no package.typ", dir.display())));
+        let missing: Vec<&str> = ENTRIES.iter().filter(|e| !files.contains_key(**e)).map(|e| &e[1..]).collect();
+        if !missing.is_empty() {
+            return Err(Error::Usage(format!(
+                "{}: the template folder has no {} (it must hold package.typ, members.typ and stamps.typ)",
+                dir.display(),
+                missing.join(" and ")
+            )));
         }
         let hash = Some(Self::hash_of(&files));
         Ok(Templates { files, hash })
@@ -129,52 +162,144 @@ pub struct Rendered {
 }
 
 /// Builds the payload, its hash and the view the templates read.
-pub fn seal(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> (Vec<u8>, String, Vec<u8>) {
+pub fn seal(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> (Vec<u8>, String, Value) {
     let prov = templates.provenance();
     let v = payload::build(pkg, src, a, &payload::Provenance { templates: &prov });
     let bytes = crate::seal::canonical(&v);
     let hash = crate::seal::sha256_hex(&bytes);
-    let view = crate::seal::canonical(&payload::view(&v));
+    let view = payload::view(&v);
     (bytes, hash, view)
 }
 
 /// Renders the package.
 pub fn render(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> Result<Rendered> {
     let (payload, hash, view) = seal(pkg, src, a, templates);
-    let pdf_and_pages = compile(pkg, src, &payload, &view, &hash, templates)?;
-    Ok(Rendered { pdf: pdf_and_pages.0, payload, hash, pages: pdf_and_pages.1 })
+    let (pdf, pages) = typeset(pkg, src, &payload, view, &hash, templates)?;
+    Ok(Rendered { pdf, payload, hash, pages })
 }
 
-fn compile(
+/// The package is typeset in several Typst runs, each in a world of its own (so the
+/// locations of their elements differ), and the sheets are joined into one document:
+/// 1. the members, [`MEMBERS_PER_RUN`] or more at a time (`members.typ`), two runs at
+///    once; where each anchor of theirs (metadata labelled `toc:...`) falls is noted,
+///    and their sheets keep only the introspection tags of headings ([`slim`]);
+/// 2. the front and back matter (`package.typ`), told where the members' anchors are,
+///    for the contents and the summary; it is split at the sheet of the anchor
+///    `toc:summary`;
+/// 3. the sheet numbers (`stamps.typ`), one page per sheet, laid over the sheets.
+///
+/// Typst's caches are emptied between runs, so the peak memory is that of two runs plus
+/// the finished sheets, whatever the length of the package. The sheets are the same as
+/// those of one run of the whole package, but that the summary always begins a sheet.
+fn typeset(
     pkg: &Package,
     src: &Source,
     payload: &[u8],
-    view: &[u8],
+    view: Value,
     hash: &str,
     templates: &Templates,
 ) -> Result<(Vec<u8>, usize)> {
+    use rayon::prelude::*;
     let d = pkg.meta.date;
     let date = Datetime::from_ymd(d.year as i32, d.month, d.day)
         .ok_or_else(|| Error::Render(format!("the date {d} cannot be used")))?;
-    let mut files = templates.files.clone();
-    files.insert("/payload.json".into(), payload.to_vec());
-    files.insert("/view.json".into(), view.to_vec());
-    files.insert("/seal.json".into(), format!("{{\"hash\":\"{hash}\"}}").into_bytes());
-    files.insert("/input.toml".into(), src.text.as_bytes().to_vec());
-    let world = world::SheetWorld::new(MAIN, files, Some(date))
-        .ok_or_else(|| Error::Render("bad main template path".into()))?;
-    let warned = typst::compile::<PagedDocument>(&world);
-    let doc = match warned.output {
-        Ok(doc) => doc,
-        Err(errors) => {
-            let msgs: Vec<String> = errors.iter().map(|d| world.describe(d)).collect();
-            return Err(Error::Render(msgs.join("; ")));
-        }
+    let Value::Object(mut head) = view else {
+        return Err(Error::Render("the package data is not an object".into()));
     };
-    if !warned.warnings.is_empty() {
-        let msgs: Vec<String> = warned.warnings.iter().map(|d| world.describe(d)).collect();
-        return Err(Error::Render(format!("the templates produced warnings (treated as errors): {}", msgs.join("; "))));
+    let members = match head.remove("members") {
+        Some(Value::Array(ms)) => ms,
+        _ => Vec::new(),
+    };
+    // what the front matter reads of the members; then each member as JSON text, so the
+    // trees (ten times the size of their text) are gone before typesetting
+    let entries: Vec<Value> = members.iter().map(contents_entry).collect();
+    let members: Vec<Vec<u8>> = members.into_par_iter().map(|m| crate::seal::canonical(&m)).collect();
+    let mut lean = head.clone();
+    lean.remove("summary");
+    let lean = crate::seal::canonical(&Value::Object(lean));
+
+    let seal_json = Bytes::new(format!("{{\"hash\":\"{hash}\"}}").into_bytes());
+    let run = |dir: &str, main: &str, view: Vec<u8>, extra: &[(&str, Bytes)]| -> Result<PagedDocument> {
+        let mut files: BTreeMap<String, Bytes> =
+            templates.files.iter().map(|(k, v)| (k.clone(), Bytes::new(v.clone()))).collect();
+        files.insert("/view.json".into(), Bytes::new(view));
+        files.insert("/seal.json".into(), seal_json.clone());
+        for (name, bytes) in extra {
+            files.insert(format!("/{name}"), bytes.clone());
+        }
+        let world = world::SheetWorld::new(dir, main, files, Some(date))
+            .ok_or_else(|| Error::Render("bad template path".into()))?;
+        compile(&world)
+    };
+
+    // 1. the members, a few per run, two runs at a time
+    let mut member_pages: Vec<Page> = Vec::new();
+    let mut anchors = Map::new();
+    let per_run = MEMBERS_PER_RUN.max(members.len().div_ceil(MAX_RUNS));
+    let runs: Vec<(usize, &[Vec<u8>])> = members.chunks(per_run).enumerate().collect();
+    let member_run = |&(k, chunk): &(usize, &[Vec<u8>])| {
+        let view = with_members(&lean, k * per_run, chunk);
+        run(&format!("m{k}"), MEMBERS, view, &[])
+    };
+    for batch in runs.chunks(PARALLEL_RUNS) {
+        let docs: Vec<Result<PagedDocument>> = batch.par_iter().map(member_run).collect();
+        // the caches hold every intermediate layout of the runs and the next runs need
+        // none of it; they are emptied between batches, when no run is going on
+        comemo::evict(0);
+        for doc in docs {
+            let doc = doc?;
+            for (key, page, at) in anchors_of(&doc) {
+                anchors.insert(key, json!({"page": member_pages.len() + page, "x": at.x.to_pt(), "y": at.y.to_pt()}));
+            }
+            member_pages.extend(doc.pages().iter().cloned().map(|mut p| {
+                slim(&mut p.frame);
+                p
+            }));
+        }
     }
+    drop(members);
+
+    // 2. the front and back matter
+    let mut v = head;
+    v.insert("members".into(), Value::Array(entries));
+    v.insert("sheets".into(), json!({"members": member_pages.len(), "anchors": anchors}));
+    let attached =
+        [("payload.json", Bytes::new(payload.to_vec())), ("input.toml", Bytes::new(src.text.as_bytes().to_vec()))];
+    // at the root: the attachments are named by their paths
+    let outer = run("", MAIN, crate::seal::canonical(&Value::Object(v)), &attached)?;
+    comemo::evict(0);
+    let back_from = anchors_of(&outer)
+        .into_iter()
+        .find(|(key, _, _)| key == "toc:summary")
+        .map(|(_, page, _)| page - 1)
+        .ok_or_else(|| {
+            Error::Render("package.typ placed no anchor \"toc:summary\" (where the back matter begins)".into())
+        })?;
+    let total = outer.pages().len() + member_pages.len();
+
+    // 3. the sheet numbers
+    let view = format!("{{\"stamp\":{{\"total\":{total}}},{}", String::from_utf8_lossy(&lean[1..]));
+    let stamps = run("s", STAMPS, view.into_bytes(), &[])?;
+    comemo::evict(0);
+    if stamps.pages().len() != total {
+        return Err(Error::Render(format!(
+            "stamps.typ made {} pages for a package of {total} sheets; it must make one per sheet",
+            stamps.pages().len()
+        )));
+    }
+
+    // the sheets in order, each with its number laid over it
+    let front = outer.pages()[..back_from].iter().cloned();
+    let back = outer.pages()[back_from..].iter().cloned();
+    let mut pages = EcoVec::with_capacity(total);
+    for (mut page, stamp) in front.chain(member_pages).chain(back).zip(stamps.pages()) {
+        page.frame.push_frame(Point::zero(), stamp.frame.clone());
+        pages.push(page);
+    }
+    let doc = PagedDocument::new(pages, outer.info().clone());
+    drop(outer);
+    drop(stamps);
+
     let standards = PdfStandards::new(&[PdfStandard::A_3b]).map_err(|e| Error::Render(format!("{e:?}")))?;
     let options = PdfOptions {
         ident: Smart::Custom(format!("strainsheet:{hash}")),
@@ -187,8 +312,122 @@ fn compile(
         ..PdfOptions::default()
     };
     let pdf = typst_pdf::pdf(&doc, &options).map_err(|errors| {
-        let msgs: Vec<String> = errors.iter().map(|d| world.describe(d)).collect();
+        let msgs: Vec<String> = errors.iter().map(|d| d.message.to_string()).collect();
         Error::Render(msgs.join("; "))
     })?;
     Ok((pdf, doc.pages().len()))
+}
+
+/// The view of a run of members: the package's lean view (a JSON object) with the
+/// members' JSON texts and the position of the first.
+fn with_members(lean: &[u8], first: usize, members: &[Vec<u8>]) -> Vec<u8> {
+    let mut out = format!("{{\"first\":{first},\"members\":[").into_bytes();
+    for (i, m) in members.iter().enumerate() {
+        if i > 0 {
+            out.push(b',');
+        }
+        out.extend_from_slice(m);
+    }
+    out.push(b']');
+    match lean {
+        [b'{', b'}'] | [] => out.push(b'}'),
+        _ => {
+            out.push(b',');
+            out.extend_from_slice(&lean[1..]);
+        }
+    }
+    out
+}
+
+/// One Typst run: its warnings are errors.
+fn compile(world: &world::SheetWorld) -> Result<PagedDocument> {
+    let Warned { output, warnings } = typst::compile::<PagedDocument>(world);
+    let doc = output.map_err(|errors| {
+        let msgs: Vec<String> = errors.iter().map(|d| world.describe(d)).collect();
+        Error::Render(msgs.join("; "))
+    })?;
+    if !warnings.is_empty() {
+        let msgs: Vec<String> = warnings.iter().map(|d| world.describe(d)).collect();
+        return Err(Error::Render(format!("the templates produced warnings (treated as errors): {}", msgs.join("; "))));
+    }
+    Ok(doc)
+}
+
+/// The anchors of a run: key, sheet (from 1) and place on the sheet.
+fn anchors_of(doc: &PagedDocument) -> Vec<(String, usize, Point)> {
+    let intro = doc.introspector();
+    let mut out = Vec::new();
+    for c in intro.query(&MetadataElem::ELEM.select()) {
+        let (Some(label), Some(loc)) = (c.label(), c.location()) else { continue };
+        let key = label.resolve();
+        if !key.starts_with("toc:") {
+            continue;
+        }
+        if let Some(pos) = intro.position(loc) {
+            out.push((key.as_str().to_string(), pos.page.get(), pos.point));
+        }
+    }
+    out
+}
+
+/// What the front and back matter read of a member: its names, for the contents.
+fn contents_entry(m: &Value) -> Value {
+    let locations: Vec<Value> = m
+        .get("locations")
+        .and_then(Value::as_array)
+        .map(|ls| {
+            ls.iter()
+                .map(|l| {
+                    let shown = l.get("shown");
+                    json!({
+                        "name": l.get("name"),
+                        "shown": {
+                            "x_label": shown.and_then(|s| s.get("x_label")),
+                            "mu": shown.and_then(|s| s.get("mu")),
+                        },
+                    })
+                })
+                .collect()
+        })
+        .unwrap_or_default();
+    json!({"id": m.get("id"), "description": m.get("description"), "locations": locations})
+}
+
+/// Drops the introspection tags of a finished sheet, but those of headings (the PDF's
+/// bookmarks are made from them): the others served the layout of their run, and they
+/// hold their elements. Frames without such tags are left as they are (and shared).
+fn slim(frame: &mut typst::layout::Frame) {
+    use typst::introspection::{Location, Tag};
+    use typst::layout::{Frame, FrameItem};
+    use typst::model::HeadingElem;
+    fn scan(frame: &Frame, headings: &mut Vec<Location>) -> bool {
+        let mut others = false;
+        for (_, it) in frame.items() {
+            match it {
+                FrameItem::Tag(Tag::Start(c, _)) if c.is::<HeadingElem>() => headings.extend(c.location()),
+                FrameItem::Tag(Tag::Start(..)) => others = true,
+                FrameItem::Group(g) => others |= scan(&g.frame, headings),
+                _ => {}
+            }
+        }
+        others
+    }
+    fn strip(frame: &mut Frame, headings: &[Location]) {
+        // only frames holding other tags are copied and rebuilt
+        if !scan(frame, &mut Vec::new()) {
+            return;
+        }
+        frame.retain(|it| match it {
+            FrameItem::Tag(Tag::Start(c, _)) => c.is::<HeadingElem>(),
+            FrameItem::Tag(Tag::End(loc, _, _)) => headings.contains(loc),
+            FrameItem::Group(g) => {
+                strip(&mut g.frame, headings);
+                true
+            }
+            _ => true,
+        });
+    }
+    let mut headings = Vec::new();
+    scan(frame, &mut headings);
+    strip(frame, &headings);
 }

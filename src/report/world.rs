@@ -34,18 +34,24 @@ pub fn file_id(path: &str) -> Option<FileId> {
 
 pub struct SheetWorld {
     main: FileId,
-    /// Virtual path (with a leading slash) to contents.
+    /// The folder the files are served under (`/run3/package.typ`). Each Typst run of a
+    /// package has its own: source spans, and with them the locations of elements, then
+    /// differ between runs, so the sheets of separate runs can be joined in one document.
+    dir: String,
+    /// Virtual path (with a leading slash, without the folder) to contents.
     files: BTreeMap<String, Bytes>,
     sources: Mutex<BTreeMap<String, Source>>,
     today: Option<Datetime>,
 }
 
 impl SheetWorld {
-    /// A world of the given files; `main` names the entry template.
-    pub fn new(main: &str, files: BTreeMap<String, Vec<u8>>, today: Option<Datetime>) -> Option<SheetWorld> {
-        let main_id = file_id(main)?;
-        let files = files.into_iter().map(|(k, v)| (k, Bytes::new(v))).collect();
-        Some(SheetWorld { main: main_id, files, sources: Mutex::new(BTreeMap::new()), today })
+    /// A world of the given files served under `/dir` (at the root if `dir` is empty);
+    /// `main` names the entry template.
+    /// Use a fixed set of folder names: file ids live as long as the process.
+    pub fn new(dir: &str, main: &str, files: BTreeMap<String, Bytes>, today: Option<Datetime>) -> Option<SheetWorld> {
+        let dir = if dir.is_empty() { String::new() } else { format!("/{dir}") };
+        let main_id = file_id(&format!("{dir}{main}"))?;
+        Some(SheetWorld { main: main_id, dir, files, sources: Mutex::new(BTreeMap::new()), today })
     }
 
     fn lookup(&self, id: FileId) -> FileResult<(&str, &Bytes)> {
@@ -53,7 +59,11 @@ impl SheetWorld {
         if *rooted.root() != VirtualRoot::Project {
             return Err(FileError::AccessDenied);
         }
-        let path = rooted.vpath().get_with_slash();
+        let full = rooted.vpath().get_with_slash();
+        let path = full
+            .strip_prefix(self.dir.as_str())
+            .filter(|p| p.starts_with('/'))
+            .ok_or_else(|| FileError::NotFound(std::path::PathBuf::from(full)))?;
         match self.files.get_key_value(path) {
             Some((k, v)) => Ok((k.as_str(), v)),
             None => Err(FileError::NotFound(std::path::PathBuf::from(path))),
@@ -64,7 +74,8 @@ impl SheetWorld {
     pub fn describe(&self, d: &SourceDiagnostic) -> String {
         let mut at = String::new();
         if let Some(id) = d.span.id() {
-            let name = id.get().vpath().get_without_slash().to_string();
+            let full = id.get().vpath().get_with_slash().to_string();
+            let name = full.strip_prefix(self.dir.as_str()).unwrap_or(&full).trim_start_matches('/').to_string();
             at = name.clone();
             if let (Ok(src), Some(range)) = (self.source(id), self.range(d.span))
                 && let Some((l, c)) = src.lines().byte_to_line_column(range.start)
