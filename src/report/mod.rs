@@ -235,6 +235,8 @@ fn typeset(
     // 1. the members, a few per run, two runs at a time
     let mut member_pages: Vec<Page> = Vec::new();
     let mut anchors = Map::new();
+    // subject marks: sheet (of the members' sheets) and place
+    let mut member_marks: Vec<(usize, f64, String)> = Vec::new();
     let per_run = MEMBERS_PER_RUN.max(members.len().div_ceil(MAX_RUNS));
     let runs: Vec<(usize, &[Vec<u8>])> = members.chunks(per_run).enumerate().collect();
     let member_run = |&(k, chunk): &(usize, &[Vec<u8>])| {
@@ -248,9 +250,11 @@ fn typeset(
         comemo::evict(0);
         for doc in docs {
             let doc = doc?;
-            for (key, page, at) in anchors_of(&doc) {
+            let marks = marks_of(&doc);
+            for (key, page, at) in marks.anchors {
                 anchors.insert(key, json!({"page": member_pages.len() + page, "x": at.x.to_pt(), "y": at.y.to_pt()}));
             }
+            member_marks.extend(marks.subjects.into_iter().map(|(page, y, s)| (member_pages.len() + page, y, s)));
             member_pages.extend(doc.pages().iter().cloned().map(|mut p| {
                 slim(&mut p.frame);
                 p
@@ -268,18 +272,28 @@ fn typeset(
     // at the root: the attachments are named by their paths
     let outer = run("", MAIN, crate::seal::canonical(&Value::Object(v)), &attached)?;
     comemo::evict(0);
-    let back_from = anchors_of(&outer)
-        .into_iter()
-        .find(|(key, _, _)| key == "toc:summary")
-        .map(|(_, page, _)| page - 1)
-        .ok_or_else(|| {
-            Error::Render("package.typ placed no anchor \"toc:summary\" (where the back matter begins)".into())
-        })?;
+    let outer_marks = marks_of(&outer);
+    let back_from =
+        outer_marks.anchors.iter().find(|(key, _, _)| key == "toc:summary").map(|(_, page, _)| page - 1).ok_or_else(
+            || Error::Render("package.typ placed no anchor \"toc:summary\" (where the back matter begins)".into()),
+        )?;
     let total = outer.pages().len() + member_pages.len();
 
-    // 3. the sheet numbers
-    let view = format!("{{\"stamp\":{{\"total\":{total}}},{}", String::from_utf8_lossy(&lean[1..]));
-    let stamps = run("s", STAMPS, view.into_bytes(), &[])?;
+    // 3. the subjects and numbers of the sheets, from the marks in sheet order
+    let shift = member_pages.len();
+    let front_marks = outer_marks.subjects.iter().filter(|m| m.0 <= back_from).cloned();
+    let member_marks = member_marks.into_iter().map(|(page, y, s)| (back_from + page, y, s));
+    let back_marks =
+        outer_marks.subjects.iter().filter(|m| m.0 > back_from).map(|(page, y, s)| (page + shift, *y, s.clone()));
+    let marks: Vec<Value> = front_marks
+        .chain(member_marks)
+        .chain(back_marks)
+        .map(|(page, y, value)| json!({"page": page, "y": y, "value": value}))
+        .collect();
+    let mut v = Map::new();
+    v.insert("stamp".into(), json!({"total": total, "marks": marks}));
+    let view = with_entries(&lean, v);
+    let stamps = run("s", STAMPS, view, &[])?;
     comemo::evict(0);
     if stamps.pages().len() != total {
         return Err(Error::Render(format!(
@@ -318,6 +332,17 @@ fn typeset(
     Ok((pdf, doc.pages().len()))
 }
 
+/// The package's lean view (a JSON object) with the given entries added.
+fn with_entries(lean: &[u8], extra: Map<String, Value>) -> Vec<u8> {
+    let mut out = crate::seal::canonical(&Value::Object(extra));
+    if lean.len() > 2 {
+        out.pop();
+        out.push(b',');
+        out.extend_from_slice(&lean[1..]);
+    }
+    out
+}
+
 /// The view of a run of members: the package's lean view (a JSON object) with the
 /// members' JSON texts and the position of the first.
 fn with_members(lean: &[u8], first: usize, members: &[Vec<u8>]) -> Vec<u8> {
@@ -353,18 +378,33 @@ fn compile(world: &world::SheetWorld) -> Result<PagedDocument> {
     Ok(doc)
 }
 
-/// The anchors of a run: key, sheet (from 1) and place on the sheet.
-fn anchors_of(doc: &PagedDocument) -> Vec<(String, usize, Point)> {
+/// What the program reads of a run: its anchors and its subject marks.
+struct Marks {
+    /// Key, sheet (from 1) and place on the sheet.
+    anchors: Vec<(String, usize, Point)>,
+    /// Sheet, height on it in points, and the subject, in order.
+    subjects: Vec<(usize, f64, String)>,
+}
+
+/// The anchors (metadata labelled `toc:...`) and the subject marks (metadata labelled
+/// `subject`) of a run.
+fn marks_of(doc: &PagedDocument) -> Marks {
     let intro = doc.introspector();
-    let mut out = Vec::new();
+    let mut out = Marks { anchors: Vec::new(), subjects: Vec::new() };
     for c in intro.query(&MetadataElem::ELEM.select()) {
         let (Some(label), Some(loc)) = (c.label(), c.location()) else { continue };
+        let Some(pos) = intro.position(loc) else { continue };
         let key = label.resolve();
-        if !key.starts_with("toc:") {
-            continue;
-        }
-        if let Some(pos) = intro.position(loc) {
-            out.push((key.as_str().to_string(), pos.page.get(), pos.point));
+        if key.as_str() == "subject" {
+            let text = match c.to_packed::<MetadataElem>().map(|m| &m.value) {
+                Some(typst::foundations::Value::Str(s)) => s.to_string(),
+                Some(typst::foundations::Value::Content(c)) => c.plain_text().to_string(),
+                Some(other) => typst::foundations::Repr::repr(other).to_string(),
+                None => continue,
+            };
+            out.subjects.push((pos.page.get(), pos.point.y.to_pt(), text));
+        } else if key.starts_with("toc:") {
+            out.anchors.push((key.as_str().to_string(), pos.page.get(), pos.point));
         }
     }
     out
