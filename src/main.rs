@@ -234,8 +234,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             let (src, pkg) = input::load(&file)?;
             progress.phase(format!("analysing {} members", pkg.members.len()));
             let a = analysis::analyze_full(&pkg)?;
-            progress.phase(format!("typesetting the package of {} members", pkg.members.len()));
-            let r = report::render(&pkg, &src, &a, &templates)?;
+            let r = report::render_reporting(&pkg, &src, &a, &templates, &|m| progress.phase(m))?;
             progress.phase("writing");
             let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
             let sidecar = seal::sidecar(&r.pdf, &name);

@@ -173,8 +173,20 @@ pub fn seal(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) ->
 
 /// Renders the package.
 pub fn render(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> Result<Rendered> {
+    render_reporting(pkg, src, a, templates, &|_| {})
+}
+
+/// Renders the package, telling `progress` what it is doing ("typesetting members: 8 of
+/// 60").
+pub fn render_reporting(
+    pkg: &Package,
+    src: &Source,
+    a: &Analysis,
+    templates: &Templates,
+    progress: &(dyn Fn(String) + Sync),
+) -> Result<Rendered> {
     let (payload, hash, view) = seal(pkg, src, a, templates);
-    let (pdf, pages) = typeset(pkg, src, &payload, view, &hash, templates)?;
+    let (pdf, pages) = typeset(pkg, src, &payload, view, &hash, templates, progress)?;
     Ok(Rendered { pdf, payload, hash, pages })
 }
 
@@ -198,6 +210,7 @@ fn typeset(
     view: Value,
     hash: &str,
     templates: &Templates,
+    progress: &(dyn Fn(String) + Sync),
 ) -> Result<(Vec<u8>, usize)> {
     use rayon::prelude::*;
     let d = pkg.meta.date;
@@ -243,7 +256,10 @@ fn typeset(
         let view = with_members(&lean, k * per_run, chunk);
         run(&format!("m{k}"), MEMBERS, view, &[])
     };
+    let mut done = 0;
     for batch in runs.chunks(PARALLEL_RUNS) {
+        progress(format!("typesetting members: {done} of {} done", members.len()));
+        done += batch.iter().map(|(_, chunk)| chunk.len()).sum::<usize>();
         let docs: Vec<Result<PagedDocument>> = batch.par_iter().map(member_run).collect();
         // the caches hold every intermediate layout of the runs and the next runs need
         // none of it; they are emptied between batches, when no run is going on
@@ -264,6 +280,7 @@ fn typeset(
     drop(members);
 
     // 2. the front and back matter
+    progress("typesetting the cover, contents, design basis, summary and appendix".into());
     let mut v = head;
     v.insert("members".into(), Value::Array(entries));
     v.insert("sheets".into(), json!({"members": member_pages.len(), "anchors": anchors}));
@@ -293,6 +310,7 @@ fn typeset(
     let mut v = Map::new();
     v.insert("stamp".into(), json!({"total": total, "marks": marks}));
     let view = with_entries(&lean, v);
+    progress(format!("numbering {total} sheets"));
     let stamps = run("s", STAMPS, view, &[])?;
     comemo::evict(0);
     if stamps.pages().len() != total {
@@ -314,6 +332,7 @@ fn typeset(
     drop(outer);
     drop(stamps);
 
+    progress(format!("writing the PDF of {total} sheets"));
     let standards = PdfStandards::new(&[PdfStandard::A_3b]).map_err(|e| Error::Render(format!("{e:?}")))?;
     let options = PdfOptions {
         ident: Smart::Custom(format!("strainsheet:{hash}")),
