@@ -8,8 +8,8 @@ use strainsheet::input::{self, Source};
 
 const EXAMPLES: [&str; 3] = ["parking-double-tee.toml", "inverted-tee-girder.toml", "hollow-core-plank.toml"];
 
-/// The examples, and a package of ten members: typeset in three runs of members, whose
-/// sheets are joined (the examples fit in one run).
+/// The examples, and a package of fourteen members: typeset in three runs of members, two
+/// at a time, whose sheets are joined (the examples fit in one run).
 fn packages() -> Vec<(String, strainsheet::input::Package, strainsheet::report::Rendered)> {
     let mut out: Vec<_> = EXAMPLES
         .iter()
@@ -18,11 +18,11 @@ fn packages() -> Vec<(String, strainsheet::input::Package, strainsheet::report::
             (ex.to_string(), pkg, r)
         })
         .collect();
-    let src = Source { name: "ten.toml".into(), text: replicated("parking-double-tee.toml", 10) };
+    let src = Source { name: "fourteen.toml".into(), text: replicated("parking-double-tee.toml", 14) };
     let pkg = input::parse(&src).unwrap();
-    assert_eq!(pkg.members.len(), 10);
+    assert_eq!(pkg.members.len(), 14);
     let r = render(&pkg, &src);
-    out.push(("ten members".into(), pkg, r));
+    out.push(("fourteen members".into(), pkg, r));
     out
 }
 
@@ -35,9 +35,9 @@ fn same_input_same_bytes() {
         assert_eq!(a.hash, b.hash);
     }
     // runs of members typeset in parallel and joined
-    let src = Source { name: "ten.toml".into(), text: replicated("parking-double-tee.toml", 10) };
+    let src = Source { name: "fourteen.toml".into(), text: replicated("parking-double-tee.toml", 14) };
     let pkg = input::parse(&src).unwrap();
-    assert!(render(&pkg, &src).pdf == render(&pkg, &src).pdf, "ten members: two renders differ");
+    assert!(render(&pkg, &src).pdf == render(&pkg, &src).pdf, "fourteen members: two renders differ");
 }
 
 #[test]
@@ -278,7 +278,7 @@ fn sidecar_reads_with_sha256sum() {
 #[test]
 fn contents_points_at_the_right_sheets() {
     for (ex, pkg, r) in packages() {
-        // the contents of ten members runs over two sheets
+        // the contents of fourteen members runs over two sheets
         let contents = pdftotext(&r.pdf, Some(2)) + &pdftotext(&r.pdf, Some(3));
         assert!(!contents.contains('—'), "{ex}: a contents row has no sheet:\n{contents}");
         let sheet_of = |needle: &str| -> usize {

@@ -46,7 +46,7 @@ const ENTRIES: [&str; 3] = [MAIN, MEMBERS, STAMPS];
 /// Members typeset in one Typst run. Typst's memory grows with the sheets of a run
 /// (about 1.7 MB a sheet); a few members at a time keep the peak low whatever the length
 /// of the package, at little cost in time.
-const MEMBERS_PER_RUN: usize = 4;
+const MEMBERS_PER_RUN: usize = 6;
 /// Runs of members typeset at the same time.
 const PARALLEL_RUNS: usize = 2;
 /// At most this many runs of members (longer packages put more members in a run). Each
