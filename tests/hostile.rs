@@ -165,6 +165,14 @@ fn cases() -> Vec<Case> {
             hc.replace("depth = 21.0", "height = 12.0").replace("\ncount = 4", "\ncount = 40"),
             "height",
         ),
+        // 16 in of concrete at the voids' mid-height, in five stretches with room for 27
+        // strands of 0.5 in side by side: 28 would straddle the voids' edges (28 x 0.5 in
+        // is less than the 16 in in all, which the check once compared)
+        case(
+            "strands straddling the voids",
+            hc.replace("depth = 21.0", "height = 12.0").replace("\ncount = 4", "\ncount = 28"),
+            "room for 27",
+        ),
         case("unknown paper", with("units = \"us\"", "units = \"us\"\npaper = \"legal\""), "paper"),
         case("unknown code basis", with("units = \"us\"", "units = \"us\"\nbasis = \"ACI 318-14\""), "basis"),
         case(

@@ -542,26 +542,13 @@ fn record_concrete(
 
 /// The points of a layer for the sketch: spread evenly along the concrete at its level.
 /// Where both sets of stretches have concrete.
-fn common(a: &[(f64, f64)], b: &[(f64, f64)]) -> Vec<(f64, f64)> {
-    let mut out = Vec::new();
-    for &(a0, a1) in a {
-        for &(b0, b1) in b {
-            let (lo, hi) = (a0.max(b0), a1.min(b1));
-            if hi > lo {
-                out.push((lo, hi));
-            }
-        }
-    }
-    out
-}
-
 /// Where the sketch draws the bars or strands of a layer: spread over the concrete the
 /// whole bar occupies (from y - d/2 to y + d/2), so none is drawn in a void; if they do
 /// not fit there, over the concrete at y.
 fn layer_points(region: &Region, y: f64, count: u32, d: f64) -> Vec<P> {
     let r = d / 2.0;
-    let band = common(&region.stretches_at(y), &common(&region.stretches_at(y - r), &region.stretches_at(y + r)));
-    let fits: f64 = band.iter().map(|(a, b)| ((b - a) / d).floor()).sum();
+    let band = region.room_at(y, d);
+    let fits: f64 = band.iter().map(|(a, b)| ((b - a) / d + 1e-9).floor()).sum();
     let (intervals, inset) = if fits >= count as f64 { (band, r) } else { (region.stretches_at(y), 0.0) };
     let intervals: Vec<(f64, f64)> =
         intervals.into_iter().filter(|(a, b)| b - a > 2.0 * inset).map(|(a, b)| (a + inset, b - inset)).collect();

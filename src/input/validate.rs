@@ -909,21 +909,38 @@ fn check_inside(cx: &mut Ctx, key: &'static str, region: &Region, depth: f64, co
         return false;
     }
     let y = top - depth;
-    let w = region.width_at(y).min(region.width_at(y + d / 2.0)).min(region.width_at(y - d / 2.0));
-    if w < count as f64 * d {
-        let allowed = if w <= 0.0 {
-            "a depth where the section has concrete (not in a void or outside the outline)".to_string()
+    let room = region.room_at(y, d);
+    let fits: u64 = room.iter().map(|(a, b)| ((b - a) / d + 1e-9).floor() as u64).sum();
+    if fits < count as u64 {
+        let w: f64 = room.iter().map(|(a, b)| b - a).sum();
+        let (there, allowed) = if room.is_empty() {
+            (
+                "no concrete spans the steel's whole diameter there".to_string(),
+                "a depth where the section has concrete (not in a void or outside the outline)".to_string(),
+            )
+        } else if room.len() == 1 {
+            (
+                format!("the section has {} {len} there", num(w)),
+                format!("at most {fits} bars or strands of this size at this depth"),
+            )
         } else {
-            format!("at most {} bars or strands of this size at this depth", (w / d).floor())
+            let pieces: Vec<String> = room.iter().map(|(a, b)| crate::trace::show(b - a)).collect();
+            (
+                format!(
+                    "the concrete there lies in {} stretches between voids and edges ({} {len}), with room for {fits} side by side",
+                    room.len(),
+                    pieces.join(", ")
+                ),
+                format!("at most {fits} bars or strands of this size at this depth"),
+            )
         };
         cx.problem(
             key,
             format!(
-                "{count} of diameter {} {len} need {} {len} of concrete width at depth {} {len}; the section has {} {len} there",
+                "{count} of diameter {} {len} need {} {len} of concrete width at depth {} {len}; {there}",
                 num(d),
                 num(count as f64 * d),
-                num(depth),
-                num(w)
+                num(depth)
             ),
             Some(allowed),
         );

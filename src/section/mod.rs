@@ -314,6 +314,50 @@ impl Region {
         xs.chunks(2).filter(|c| c.len() == 2).map(|c| (c[0], c[1])).collect()
     }
 
+    /// Where a bar of diameter `d` centred at height `y` can sit: the x ranges over which
+    /// the concrete spans the whole band from y - d/2 to y + d/2. A vertical segment
+    /// across the band lies in the concrete if its middle does and it meets no edge of
+    /// the outline or a hole: the room is the stretches at y less the x ranges the edges
+    /// cover inside the band.
+    pub fn room_at(&self, y: f64, d: f64) -> Vec<(f64, f64)> {
+        let (lo, hi) = (y - d / 2.0, y + d / 2.0);
+        let mut blocked: Vec<(f64, f64)> = Vec::new();
+        for (ring, info) in self.rings().zip(&self.cache) {
+            if info.y_max <= lo || info.y_min >= hi {
+                continue;
+            }
+            for (i, a) in ring.iter().enumerate() {
+                let b = ring[(i + 1) % ring.len()];
+                let (y0, y1) = (a[1].min(b[1]), a[1].max(b[1]));
+                if y1 <= lo || y0 >= hi {
+                    continue;
+                }
+                // the part of the edge inside the band
+                let x_at = |yy: f64| a[0] + (b[0] - a[0]) * (yy - a[1]) / (b[1] - a[1]);
+                let (xa, xb) = if y1 > y0 { (x_at(y0.max(lo)), x_at(y1.min(hi))) } else { (a[0], b[0]) };
+                blocked.push((xa.min(xb), xa.max(xb)));
+            }
+        }
+        blocked.sort_unstable_by(|p, q| p.0.total_cmp(&q.0));
+        let mut room = Vec::new();
+        for (s0, s1) in self.stretches_at(y) {
+            let mut from = s0;
+            for &(b0, b1) in &blocked {
+                if b1 <= from || b0 >= s1 {
+                    continue;
+                }
+                if b0 > from {
+                    room.push((from, b0));
+                }
+                from = from.max(b1);
+            }
+            if s1 > from {
+                room.push((from, s1));
+            }
+        }
+        room
+    }
+
     /// The extent [x0, x1] of the outline's top edge (vertices at the top level).
     pub fn top_extent(&self) -> (f64, f64) {
         let top = self.y_top();
@@ -331,6 +375,20 @@ impl Region {
         }
         self.rings().all(|r| distance_to_ring(r, p) >= clear)
     }
+}
+
+/// The overlaps of two sorted lists of disjoint x ranges.
+pub fn intersect(a: &[(f64, f64)], b: &[(f64, f64)]) -> Vec<(f64, f64)> {
+    let mut out = Vec::new();
+    for &(a0, a1) in a {
+        for &(b0, b1) in b {
+            let (lo, hi) = (a0.max(b0), a1.min(b1));
+            if hi > lo {
+                out.push((lo, hi));
+            }
+        }
+    }
+    out
 }
 
 /// Even-odd point-in-polygon test.
@@ -466,6 +524,71 @@ mod tests {
 
     fn rect(w: f64, h: f64) -> Region {
         Region::new(vec![[0.0, 0.0], [w, 0.0], [w, h], [0.0, h]], vec![])
+    }
+
+    /// Whether the vertical segment at x across the band [lo, hi] lies in the concrete,
+    /// sampled finely.
+    fn column_clear(r: &Region, x: f64, lo: f64, hi: f64) -> bool {
+        (0..=100).map(|k| lo + (hi - lo) * k as f64 / 100.0).all(|y| r.contains([x, y], 0.0))
+    }
+
+    #[test]
+    fn room_for_a_bar_is_the_concrete_across_the_band() {
+        // a plank with round voids, a double tee and a skewed polygon with a hole
+        let circle = |cx: f64, cy: f64, r: f64| -> Vec<P> {
+            (0..48)
+                .map(|k| (k as f64) / 48.0 * std::f64::consts::TAU)
+                .map(|a| [cx + r * a.cos(), cy + r * a.sin()])
+                .collect()
+        };
+        let plank = Region::new(
+            vec![[0.0, 0.0], [48.0, 0.0], [48.0, 8.0], [0.0, 8.0]],
+            (0..4).map(|k| circle(6.0 + 12.0 * k as f64, 4.0, 2.6)).collect(),
+        );
+        let tee = Region::new(
+            vec![
+                [0.0, 24.0],
+                [0.0, 22.0],
+                [16.0, 22.0],
+                [17.0, 0.0],
+                [21.0, 0.0],
+                [22.0, 22.0],
+                [42.0, 22.0],
+                [43.0, 0.0],
+                [47.0, 0.0],
+                [48.0, 22.0],
+                [64.0, 22.0],
+                [64.0, 24.0],
+            ],
+            vec![],
+        );
+        let odd = Region::new(
+            vec![[0.0, 0.0], [10.0, 1.0], [12.0, 9.0], [1.0, 10.0]],
+            vec![vec![[4.0, 4.0], [7.0, 4.5], [6.0, 7.0]]],
+        );
+        for (name, r) in [("plank", &plank), ("tee", &tee), ("odd", &odd)] {
+            let (x0, x1) =
+                r.outline.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), p| (a.min(p[0]), b.max(p[0])));
+            for k in 0..20 {
+                let y = r.y_bot() + (r.y_top() - r.y_bot()) * (k as f64 + 0.3137) / 20.0;
+                for d in [0.5, 1.0] {
+                    let (lo, hi) = (y - d / 2.0, y + d / 2.0);
+                    let room = r.room_at(y, d);
+                    // every column of the room is clear, and every clear column is in it
+                    // (columns within a hair of a piece's end are not judged)
+                    for j in 0..=300 {
+                        let x = x0 + (x1 - x0) * (j as f64 + 0.5) / 301.0;
+                        let inside = room.iter().any(|&(a, b)| x > a && x < b);
+                        let near = room.iter().any(|&(a, b)| (x - a).abs() < 1e-6 || (x - b).abs() < 1e-6);
+                        if near {
+                            continue;
+                        }
+                        let clear = column_clear(r, x, lo + 1e-9, hi - 1e-9);
+                        assert_eq!(inside, clear, "{name} y {y} d {d} x {x}: room {room:?}");
+                    }
+                }
+            }
+        }
     }
 
     #[test]
