@@ -34,6 +34,14 @@ impl Model {
             Model::Power => "PCI Design Handbook power formula",
         }
     }
+
+    /// The name in a narrow table column.
+    pub fn short(self) -> &'static str {
+        match self {
+            Model::Pci => "two-branch curve",
+            Model::Power => "power formula",
+        }
+    }
 }
 
 /// Strand grade, by its nominal tensile strength.

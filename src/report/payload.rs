@@ -325,6 +325,7 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
                 "fse": show(s.fse),
                 "level": level,
                 "model": s.model,
+                "model_shown": s.model.short(),
                 "debonded": if s.debonded_length > 0.0 { Some(show(s.debonded_length)) } else { None },
             })
         })
