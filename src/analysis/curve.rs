@@ -514,6 +514,20 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
     let last = pts.last().copied().ok_or_else(|| fail(m, loc, "no points"))?;
     let ultimate = Mark { curvature: last.curvature, moment: last.moment };
     let ductility = yielding.map(|y| ultimate.curvature / y.curvature).filter(|d| d.is_finite() && *d > 0.0);
+    // a moment that falls after cracking: the concrete's tension is lost at once
+    if let Some(cr) = cracking {
+        let after = pts.iter().filter(|q| q.curvature > cr.curvature);
+        let until = yielding.map_or(peak.curvature, |y| y.curvature);
+        let low = after.take_while(|q| q.curvature <= until).map(|q| q.moment).fold(f64::INFINITY, f64::min);
+        if low < cr.moment * 0.995 {
+            notes.push(format!(
+                "Just after cracking the moment falls from {} to {} {}: the concrete in tension carries fr until it cracks and nothing after (no tension stiffening), so its share is lost at once and the steel takes it up as the curvature grows.",
+                crate::trace::show(cr.moment),
+                crate::trace::show(low),
+                sys.names().moment
+            ));
+        }
+    }
     if yielding.is_none() {
         notes.push("The extreme tension steel does not yield (0.9 fpu for strand) before the end of the curve: no yield point, no curvature ductility.".into());
     }

@@ -184,7 +184,10 @@ fn location_view(l: &LocationResult, sys: System) -> Value {
     v
 }
 
-/// Tick positions for an axis from lo to hi: about five steps of 1, 2, 2.5 or 5 × 10^k.
+/// Tick positions for an axis from lo to hi: about five steps of 1, 2, 2.5 or 5 × 10^k,
+/// up to the last one not beyond hi. They start at the first tick not below lo, or at
+/// the one below lo where that would leave over 40 % of a step unlabelled (a curve that
+/// starts well left of zero gets a labelled negative tick; the axis then starts there).
 fn ticks(lo: f64, hi: f64) -> Vec<f64> {
     let span = (hi - lo).abs();
     if span <= 0.0 || !span.is_finite() {
@@ -193,7 +196,8 @@ fn ticks(lo: f64, hi: f64) -> Vec<f64> {
     let raw = span / 5.0;
     let mag = 10f64.powf(raw.log10().floor());
     let step = [1.0, 2.0, 2.5, 5.0, 10.0].iter().map(|k| k * mag).find(|s| *s >= raw).unwrap_or(10.0 * mag);
-    let first = (lo / step).ceil() * step;
+    let up = (lo / step - 1e-9).ceil() * step;
+    let first = if up - lo > 0.4 * step { up - step } else { up };
     let mut out = Vec::new();
     let mut t = first;
     while t <= hi + 1e-9 * span {
