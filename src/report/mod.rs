@@ -193,12 +193,14 @@ pub fn render_reporting(
 /// The package is typeset in several Typst runs, each in a world of its own (so the
 /// locations of their elements differ), and the sheets are joined into one document:
 /// 1. the members, [`MEMBERS_PER_RUN`] or more at a time (`members.typ`), two runs at
-///    once; where each anchor of theirs (metadata labelled `toc:...`) falls is noted,
-///    and their sheets keep only the introspection tags of headings ([`slim`]);
+///    once; where each anchor (metadata labelled `toc:...`) and each subject mark
+///    (labelled `subject`) falls is noted, and the sheets keep only the introspection
+///    tags of headings ([`slim`]);
 /// 2. the front and back matter (`package.typ`), told where the members' anchors are,
 ///    for the contents and the summary; it is split at the sheet of the anchor
 ///    `toc:summary`;
-/// 3. the sheet numbers (`stamps.typ`), one page per sheet, laid over the sheets.
+/// 3. the subjects and numbers of the sheets (`stamps.typ`, given every subject mark in
+///    sheet order): one page per sheet, laid over the sheet of the same number.
 ///
 /// Typst's caches are emptied between runs, so the peak memory is that of two runs plus
 /// the finished sheets, whatever the length of the package. The sheets are the same as
@@ -320,7 +322,7 @@ fn typeset(
         )));
     }
 
-    // the sheets in order, each with its number laid over it
+    // the sheets in order, each with its subject and number laid over it
     let front = outer.pages()[..back_from].iter().cloned();
     let back = outer.pages()[back_from..].iter().cloned();
     let mut pages = EcoVec::with_capacity(total);
