@@ -71,7 +71,9 @@ enum Cmd {
         /// Replace existing output files.
         #[arg(long)]
         overwrite: bool,
-        /// Use the templates in this folder instead of the built-in ones.
+        /// Use the templates in this folder instead of the built-in ones (it must hold
+        /// package.typ, members.typ and stamps.typ; start from a copy of the built-in
+        /// templates/ folder).
         #[arg(long, value_name = "DIR")]
         templates: Option<PathBuf>,
     },
