@@ -355,6 +355,9 @@ fn typeset(
 
 /// The package's lean view (a JSON object) with the given entries added.
 fn with_entries(lean: &[u8], extra: Map<String, Value>) -> Vec<u8> {
+    if extra.is_empty() {
+        return lean.to_vec();
+    }
     let mut out = crate::seal::canonical(&Value::Object(extra));
     if lean.len() > 2 {
         out.pop();
@@ -491,4 +494,32 @@ fn slim(frame: &mut typst::layout::Frame) {
     let mut headings = Vec::new();
     scan(frame, &mut headings);
     strip(frame, &headings);
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn views_are_spliced_into_valid_json() {
+        let lean = crate::seal::canonical(&json!({"package": {"title": "T"}, "units": {"length": "in"}}));
+        let empty = crate::seal::canonical(&json!({}));
+        let members = vec![crate::seal::canonical(&json!({"id": "A"})), crate::seal::canonical(&json!({"id": "B"}))];
+        for base in [&lean, &empty] {
+            let v: Value = serde_json::from_slice(&with_members(base, 6, &members)).unwrap();
+            assert_eq!(v["first"], 6);
+            assert_eq!(v["members"][1]["id"], "B");
+            assert_eq!(v.as_object().unwrap().len(), if base.len() > 2 { 4 } else { 2 });
+            let none: Value = serde_json::from_slice(&with_members(base, 0, &[])).unwrap();
+            assert_eq!(none["members"], json!([]));
+            let mut extra = Map::new();
+            extra.insert("stamp".into(), json!({"total": 3}));
+            let v: Value = serde_json::from_slice(&with_entries(base, extra)).unwrap();
+            assert_eq!(v["stamp"]["total"], 3);
+            let v: Value = serde_json::from_slice(&with_entries(base, Map::new())).unwrap();
+            assert_eq!(v, serde_json::from_slice::<Value>(base).unwrap());
+        }
+        let v: Value = serde_json::from_slice(&with_members(&lean, 0, &members)).unwrap();
+        assert_eq!(v["package"]["title"], "T");
+    }
 }
