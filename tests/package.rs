@@ -1,6 +1,6 @@
 //! The calculation package: determinism, the title block on every sheet, DRAFT logic,
 //! the displayed values against the trace, hostile text, overwrite refusal, and the PDF
-//! structure read back with a PDF library.
+//! structure read back with a PDF library, and the bookmarks.
 
 mod common;
 use common::*;
@@ -221,6 +221,35 @@ fn pdf_structure_reads_back() {
         let w = mb[2].as_float().unwrap_or_else(|_| mb[2].as_i64().unwrap() as f32);
         let expected = if pkg.units == strainsheet::units::System::Us { 612.0 } else { 595.28 };
         assert!((w - expected).abs() < 1.0, "{ex}: page width {w}");
+    }
+}
+
+// The PDF bookmarks come from the headings of every run of Typst: each member's heading
+// is there and opens the member's sheet, as the contents says.
+#[test]
+fn bookmarks_lead_to_every_member() {
+    for (ex, pkg, r) in packages() {
+        let doc = lopdf::Document::load_mem(&r.pdf).unwrap();
+        let toc = doc.get_toc().expect("the package has bookmarks");
+        assert!(toc.errors.is_empty(), "{ex}: {:?}", toc.errors);
+        for m in &pkg.members {
+            let title = format!("Member {}", m.id);
+            let entry =
+                toc.toc.iter().find(|t| t.title == title).unwrap_or_else(|| panic!("{ex}: no bookmark {title}"));
+            assert!(
+                pdftotext(&r.pdf, Some(entry.page)).contains(&title),
+                "{ex}: bookmark {title} leads to sheet {}",
+                entry.page
+            );
+        }
+        for part in ["Summary of members", "Appendix: the input file"] {
+            let entry = toc.toc.iter().find(|t| t.title == part).unwrap_or_else(|| panic!("{ex}: no bookmark {part}"));
+            assert!(
+                pdftotext(&r.pdf, Some(entry.page)).contains(part),
+                "{ex}: bookmark {part} leads to sheet {}",
+                entry.page
+            );
+        }
     }
 }
 
