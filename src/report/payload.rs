@@ -34,7 +34,8 @@ fn unit_name(u: Unit, sys: System) -> &'static str {
 
 /// A value as Typst math: "6.123 times 10^(-3)" for a strain.
 fn shown_math(v: f64, u: Unit) -> String {
-    let (_, _, tag) = scale(u);
+    // zero needs no scale ("0", not "0 × 10⁻³")
+    let (_, _, tag) = if v == 0.0 { (1.0, "", "") } else { scale(u) };
     let s = scaled(v, u);
     let s = crate::trace::math_number(&s);
     if tag.is_empty() { s } else { format!("{s} times {tag}") }
