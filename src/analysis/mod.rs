@@ -548,8 +548,11 @@ fn record_concrete(
 fn layer_points(region: &Region, y: f64, count: u32, d: f64) -> Vec<P> {
     let r = d / 2.0;
     let band = region.room_at(y, d);
-    let fits: f64 = band.iter().map(|(a, b)| ((b - a) / d + 1e-9).floor()).sum();
-    let (intervals, inset) = if fits >= count as f64 { (band, r) } else { (region.stretches_at(y), 0.0) };
+    let (intervals, inset) = if crate::section::side_by_side(&band, d) >= u64::from(count) {
+        (band, r)
+    } else {
+        (region.stretches_at(y), 0.0)
+    };
     let intervals: Vec<(f64, f64)> =
         intervals.into_iter().filter(|(a, b)| b - a > 2.0 * inset).map(|(a, b)| (a + inset, b - inset)).collect();
     let total: f64 = intervals.iter().map(|(a, b)| b - a).sum();

@@ -910,8 +910,8 @@ fn check_inside(cx: &mut Ctx, key: &'static str, region: &Region, depth: f64, co
     }
     let y = top - depth;
     let room = region.room_at(y, d);
-    let fits: u64 = room.iter().map(|(a, b)| ((b - a) / d + 1e-9).floor() as u64).sum();
-    if fits < count as u64 {
+    let fits = crate::section::side_by_side(&room, d);
+    if fits < u64::from(count) {
         let w: f64 = room.iter().map(|(a, b)| b - a).sum();
         let (there, allowed) = if room.is_empty() {
             (

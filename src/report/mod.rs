@@ -162,7 +162,7 @@ pub struct Rendered {
 }
 
 /// Builds the payload, its hash and the view the templates read.
-pub fn seal(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> (Vec<u8>, String, Value) {
+fn seal(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> (Vec<u8>, String, Value) {
     let prov = templates.provenance();
     let v = payload::build(pkg, src, a, &payload::Provenance { templates: &prov });
     let bytes = crate::seal::canonical(&v);
@@ -359,10 +359,19 @@ fn with_entries(lean: &[u8], extra: Map<String, Value>) -> Vec<u8> {
         return lean.to_vec();
     }
     let mut out = crate::seal::canonical(&Value::Object(extra));
-    if lean.len() > 2 {
-        out.pop();
-        out.push(b',');
-        out.extend_from_slice(&lean[1..]);
+    out.pop();
+    close_with(out, lean)
+}
+
+/// Ends the JSON object begun in `out` (its opening brace and some members written)
+/// with the members of the object `lean`.
+fn close_with(mut out: Vec<u8>, lean: &[u8]) -> Vec<u8> {
+    match lean {
+        [b'{', b'}'] | [] => out.push(b'}'),
+        _ => {
+            out.push(b',');
+            out.extend_from_slice(&lean[1..]);
+        }
     }
     out
 }
@@ -378,14 +387,7 @@ fn with_members(lean: &[u8], first: usize, members: &[Vec<u8>]) -> Vec<u8> {
         out.extend_from_slice(m);
     }
     out.push(b']');
-    match lean {
-        [b'{', b'}'] | [] => out.push(b'}'),
-        _ => {
-            out.push(b',');
-            out.extend_from_slice(&lean[1..]);
-        }
-    }
-    out
+    close_with(out, lean)
 }
 
 /// One Typst run: its warnings are errors.

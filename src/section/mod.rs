@@ -377,6 +377,12 @@ impl Region {
     }
 }
 
+/// How many bars of diameter `d` fit side by side in the x ranges of `room` (whole bars
+/// in each range; see [`Region::room_at`]).
+pub fn side_by_side(room: &[(f64, f64)], d: f64) -> u64 {
+    room.iter().map(|(a, b)| ((b - a) / d + 1e-9).floor() as u64).sum()
+}
+
 /// The overlaps of two sorted lists of disjoint x ranges.
 pub fn intersect(a: &[(f64, f64)], b: &[(f64, f64)]) -> Vec<(f64, f64)> {
     let mut out = Vec::new();
