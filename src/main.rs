@@ -226,6 +226,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             Ok(if pass { ExitCode::SUCCESS } else { ExitCode::from(1) })
         }
         Cmd::Report { file, output, overwrite, templates } => {
+            no_huge_pages();
             let out = output.unwrap_or_else(|| file.with_extension("pdf"));
             let templates = match templates {
                 Some(dir) => report::Templates::from_dir(&dir)?,
@@ -251,6 +252,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             Ok(if a.pass() { ExitCode::SUCCESS } else { ExitCode::from(1) })
         }
         Cmd::Verify { file, templates, pubkey } => {
+            no_huge_pages();
             let r =
                 verify::verify(&file, &verify::Options { templates: templates.as_deref(), pubkey: pubkey.as_deref() })?;
             println!("verify {}", file.display());
@@ -354,6 +356,18 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             }
             Ok(ExitCode::SUCCESS)
         }
+    }
+}
+
+/// Typesetting holds many small allocations for seconds. With transparent huge pages the
+/// allocator's partly used 2 MiB pages count in full: the 60-member package peaked about
+/// 55 MB higher with them. `check` keeps them, as it is a fifth faster with them.
+fn no_huge_pages() {
+    #[cfg(target_os = "linux")]
+    // SAFETY: PR_SET_THP_DISABLE takes plain integers and reads or writes no memory of
+    // ours; if the kernel refuses, the pages stay as they were (nothing else changes).
+    unsafe {
+        libc::prctl(libc::PR_SET_THP_DISABLE, 1, 0, 0, 0);
     }
 }
 

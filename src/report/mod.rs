@@ -459,43 +459,129 @@ fn contents_entry(m: &Value) -> Value {
     json!({"id": m.get("id"), "description": m.get("description"), "locations": locations})
 }
 
-/// Drops the introspection tags of a finished sheet, but those of headings (the PDF's
-/// bookmarks are made from them): the others served the layout of their run, and they
-/// hold their elements. Frames without such tags are left as they are (and shared).
+/// Makes a finished sheet smaller to hold until the PDF is written:
+/// - it drops the introspection tags, but those of headings (the PDF's bookmarks are made
+///   from them): the others served the layout of their run, and they hold their elements;
+/// - it joins runs of text set one after the other on one baseline in the same font, size
+///   and colour into one run (an equation is set a glyph or a number at a time, and each
+///   run costs an item and an allocation).
+///
+/// The glyphs stay where they were: the last glyph of a run advances to the start of the
+/// next. Frames with nothing to change are left as they are (and shared).
 fn slim(frame: &mut typst::layout::Frame) {
     use typst::introspection::{Location, Tag};
     use typst::layout::{Frame, FrameItem};
     use typst::model::HeadingElem;
-    fn scan(frame: &Frame, headings: &mut Vec<Location>) -> bool {
-        let mut others = false;
+    fn headings_in(frame: &Frame, out: &mut Vec<Location>) {
         for (_, it) in frame.items() {
             match it {
-                FrameItem::Tag(Tag::Start(c, _)) if c.is::<HeadingElem>() => headings.extend(c.location()),
-                FrameItem::Tag(Tag::Start(..)) => others = true,
-                FrameItem::Group(g) => others |= scan(&g.frame, headings),
+                FrameItem::Tag(Tag::Start(c, _)) if c.is::<HeadingElem>() => out.extend(c.location()),
+                FrameItem::Group(g) => headings_in(&g.frame, out),
                 _ => {}
             }
         }
-        others
     }
-    fn strip(frame: &mut Frame, headings: &[Location]) {
-        // only frames holding other tags are copied and rebuilt
-        if !scan(frame, &mut Vec::new()) {
-            return;
+    fn dropped(it: &FrameItem, headings: &[Location]) -> bool {
+        match it {
+            FrameItem::Tag(Tag::Start(c, _)) => !c.is::<HeadingElem>(),
+            FrameItem::Tag(Tag::End(loc, _, _)) => !headings.contains(loc),
+            _ => false,
         }
-        frame.retain(|it| match it {
-            FrameItem::Tag(Tag::Start(c, _)) => c.is::<HeadingElem>(),
-            FrameItem::Tag(Tag::End(loc, _, _)) => headings.contains(loc),
-            FrameItem::Group(g) => {
-                strip(&mut g.frame, headings);
-                true
+    }
+    /// The frame rebuilt, or `None` when nothing in it changes.
+    fn rebuilt(frame: &Frame, headings: &[Location]) -> Option<Frame> {
+        let groups: Vec<Option<Frame>> = frame
+            .items()
+            .map(|(_, it)| match it {
+                FrameItem::Group(g) => rebuilt(&g.frame, headings),
+                _ => None,
+            })
+            .collect();
+        let mut last_text: Option<(Point, &typst::text::TextItem)> = None;
+        let mut work = groups.iter().any(Option::is_some);
+        for (p, it) in frame.items() {
+            if work {
+                break;
             }
-            _ => true,
-        });
+            work = dropped(it, headings);
+            if let FrameItem::Text(t) = it {
+                work |= last_text.is_some_and(|(q, prev)| joins(q, prev, *p, t));
+                last_text = Some((*p, t));
+            } else if !matches!(it, FrameItem::Tag(_)) {
+                last_text = None;
+            }
+        }
+        if !work {
+            return None;
+        }
+        let mut items: Vec<(Point, FrameItem)> = Vec::with_capacity(frame.items().len());
+        for ((p, it), group) in frame.items().zip(groups) {
+            if dropped(it, headings) {
+                continue;
+            }
+            match (it, group) {
+                (FrameItem::Group(g), Some(inner)) => {
+                    let mut g = g.clone();
+                    g.frame = inner;
+                    items.push((*p, FrameItem::Group(g)));
+                }
+                (FrameItem::Text(t), _) => {
+                    if let Some((q, FrameItem::Text(prev))) = items.last_mut()
+                        && joins(*q, prev, *p, t)
+                    {
+                        join(*q, prev, *p, t);
+                    } else {
+                        items.push((*p, it.clone()));
+                    }
+                }
+                _ => items.push((*p, it.clone())),
+            }
+        }
+        items.shrink_to_fit();
+        let mut out = frame.clone();
+        out.clear();
+        out.push_multiple(items);
+        Some(out)
     }
     let mut headings = Vec::new();
-    scan(frame, &mut headings);
-    strip(frame, &headings);
+    headings_in(frame, &mut headings);
+    if let Some(f) = rebuilt(frame, &headings) {
+        *frame = f;
+    }
+}
+
+/// Whether the text run `b` at `pb` can be joined to the run `a` at `pa`: the same
+/// baseline, font, size, colour, stroke and language, `b` starting at or after the end
+/// of `a`, no vertical advances, and the joined text within the u16 glyph ranges.
+fn joins(pa: Point, a: &typst::text::TextItem, pb: Point, b: &typst::text::TextItem) -> bool {
+    pa.y == pb.y
+        && a.font == b.font
+        && a.size == b.size
+        && a.fill == b.fill
+        && a.stroke == b.stroke
+        && a.lang == b.lang
+        && a.region == b.region
+        && !a.glyphs.is_empty()
+        && !b.glyphs.is_empty()
+        && pb.x >= pa.x + a.width()
+        && a.text.len() + b.text.len() <= usize::from(u16::MAX)
+        && a.glyphs.iter().chain(&b.glyphs).all(|g| g.y_advance.get() == 0.0)
+}
+
+/// Joins the run `b` at `pb` to the run `a` at `pa` (see [`joins`]): the last glyph of `a`
+/// advances to where `b` starts.
+fn join(pa: Point, a: &mut typst::text::TextItem, pb: Point, b: &typst::text::TextItem) {
+    let gap = pb.x - (pa.x + a.width());
+    let shift = a.text.len() as u16;
+    if let Some(last) = a.glyphs.last_mut() {
+        last.x_advance += typst::layout::Em::from_abs(gap, a.size);
+    }
+    a.text.push_str(&b.text);
+    a.glyphs.extend(b.glyphs.iter().map(|g| {
+        let mut g = g.clone();
+        g.range = g.range.start + shift..g.range.end + shift;
+        g
+    }));
 }
 
 #[cfg(test)]
@@ -523,5 +609,84 @@ mod tests {
         }
         let v: Value = serde_json::from_slice(&with_members(&lean, 0, &members)).unwrap();
         assert_eq!(v["package"]["title"], "T");
+    }
+
+    /// Every glyph of a page: its id, the text it stands for, and where it is drawn
+    /// (the sum of the run's advances before it, through every group's transform).
+    fn glyphs_of(frame: &typst::layout::Frame) -> Vec<(u16, String, f64, f64)> {
+        use typst::layout::{FrameItem, Transform};
+        fn walk(frame: &typst::layout::Frame, ts: Transform, out: &mut Vec<(u16, String, f64, f64)>) {
+            for (p, it) in frame.items() {
+                let here = ts.pre_concat(Transform::translate(p.x, p.y));
+                match it {
+                    FrameItem::Group(g) => walk(&g.frame, here.pre_concat(g.transform), out),
+                    FrameItem::Text(t) => {
+                        let mut x = typst::layout::Abs::zero();
+                        for g in &t.glyphs {
+                            let at = Point::new(x + g.x_offset.at(t.size), -g.y_offset.at(t.size)).transform(here);
+                            out.push((g.id, t.text[g.range()].to_string(), at.x.to_pt(), at.y.to_pt()));
+                            x += g.x_advance.at(t.size);
+                        }
+                    }
+                    _ => {}
+                }
+            }
+        }
+        let mut out = Vec::new();
+        walk(frame, Transform::identity(), &mut out);
+        out
+    }
+
+    fn texts_in(frame: &typst::layout::Frame) -> usize {
+        use typst::layout::FrameItem;
+        frame
+            .items()
+            .map(|(_, it)| match it {
+                FrameItem::Text(_) => 1,
+                FrameItem::Group(g) => texts_in(&g.frame),
+                _ => 0,
+            })
+            .sum()
+    }
+
+    #[test]
+    fn slim_sheets_draw_every_glyph_where_it_was() {
+        // an equation is set a glyph or a number at a time; a heading keeps its tags
+        let source = "= Flexure\n\
+            Prestress $f_(s e) = 160 \"ksi\"$, so $P_e = A_(p s) f_(s e) = 1.224 dot 160 = 195.8 \"kip\"$.\n\n\
+            #box(rotate(90deg)[$c = 0.529 \"in\" + x^2$]) #text(fill: red)[$a = beta_1 c$] and text.\n";
+        let mut files = BTreeMap::new();
+        files.insert("/main.typ".to_string(), Bytes::new(source.as_bytes().to_vec()));
+        let world = world::SheetWorld::new("", "/main.typ", files, None).unwrap();
+        let doc = compile(&world).unwrap();
+        let before = &doc.pages()[0].frame;
+        let mut after = before.clone();
+        slim(&mut after);
+        let (a, b) = (glyphs_of(before), glyphs_of(&after));
+        assert_eq!(a.len(), b.len());
+        for (g, h) in a.iter().zip(&b) {
+            assert_eq!((g.0, &g.1), (h.0, &h.1));
+            assert!((g.2 - h.2).abs() < 1e-9 && (g.3 - h.3).abs() < 1e-9, "{g:?} moved to {h:?}");
+        }
+        assert!(texts_in(&after) < texts_in(before), "{} runs before, {} after", texts_in(before), texts_in(&after));
+        // the heading's tags stay (the bookmarks are made from them), the others go
+        assert_eq!(tags_in(before).0, 1);
+        assert!(tags_in(before).1 > 0);
+        assert_eq!(tags_in(&after), (1, 0));
+    }
+
+    /// The heading start tags and the other start tags in a frame.
+    fn tags_in(frame: &typst::layout::Frame) -> (usize, usize) {
+        use typst::introspection::Tag;
+        use typst::layout::FrameItem;
+        frame.items().fold((0, 0), |(h, o), (_, it)| match it {
+            FrameItem::Tag(Tag::Start(c, _)) if c.is::<typst::model::HeadingElem>() => (h + 1, o),
+            FrameItem::Tag(Tag::Start(..)) => (h, o + 1),
+            FrameItem::Group(g) => {
+                let (gh, go) = tags_in(&g.frame);
+                (h + gh, o + go)
+            }
+            _ => (h, o),
+        })
     }
 }
