@@ -173,19 +173,23 @@ fn seal(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> (Ve
 
 /// Renders the package.
 pub fn render(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> Result<Rendered> {
-    render_reporting(pkg, src, a, templates, &|_| {})
+    let (payload, hash, view) = seal(pkg, src, a, templates);
+    let (pdf, pages) = typeset(pkg, src, &payload, view, &hash, templates, &|_| {})?;
+    Ok(Rendered { pdf, payload, hash, pages })
 }
 
-/// Renders the package, telling `progress` what it is doing ("typesetting members: 8 of
-/// 60").
+/// Renders the package as [`render`] does, telling `progress` what it is doing
+/// ("typesetting members: 8 of 60"); the analysis is let go before the typesetting.
 pub fn render_reporting(
     pkg: &Package,
     src: &Source,
-    a: &Analysis,
+    a: Analysis,
     templates: &Templates,
     progress: &(dyn Fn(String) + Sync),
 ) -> Result<Rendered> {
-    let (payload, hash, view) = seal(pkg, src, a, templates);
+    let (payload, hash, view) = seal(pkg, src, &a, templates);
+    // the payload holds all of it now; the sheets are typeset from the view
+    drop(a);
     let (pdf, pages) = typeset(pkg, src, &payload, view, &hash, templates, progress)?;
     Ok(Rendered { pdf, payload, hash, pages })
 }
