@@ -269,3 +269,27 @@ fn errors_point_at_the_offending_value() {
     assert!(err.contains("allowed: 0 <= fse < fpu = 270 ksi"), "{err}");
     assert!(err.contains("^^^^^"), "{err}");
 }
+
+/// The quick reading of the input (toml-spanner) decides only what the toml crate reads
+/// the same way: on every hostile input it either gives the toml crate's value or gives
+/// up (and the toml crate's message is shown).
+#[test]
+fn quick_reading_agrees_with_the_toml_crate() {
+    use strainsheet::input::{fast, schema::File};
+    let mut decided = 0;
+    let texts = cases().into_iter().map(|c| (c.name, c.text)).chain([("base", BASE_TEXT.as_bytes().to_vec())]);
+    for (name, bytes) in texts {
+        let Ok(text) = std::str::from_utf8(&bytes) else { continue };
+        let slow: Result<File, _> = toml::from_str(text);
+        match (fast::quick::<File>(text), slow) {
+            (Some(q), Ok(s)) => {
+                assert_eq!(format!("{q:?}"), format!("{s:?}"), "{name}: the readings differ");
+                decided += 1;
+            }
+            (Some(_), Err(e)) => panic!("{name}: read quickly, but the toml crate refuses it: {e}"),
+            (None, _) => {}
+        }
+    }
+    // most hostile inputs are well-formed TOML with bad values, read the same both ways
+    assert!(decided >= 20, "only {decided} decided quickly");
+}

@@ -1,6 +1,7 @@
 //! Reading a package: TOML text to a validated [`Package`], or diagnostics naming the
 //! file, line, column, key, the value found and what is allowed.
 
+pub mod fast;
 pub mod locate;
 pub mod model;
 pub mod schema;
@@ -168,7 +169,7 @@ fn parse_chunked(text: &str) -> Option<schema::File> {
     if starts.len() < CHUNKED_FROM {
         return None;
     }
-    let head: Head = toml::from_str(&text[..starts[0]]).ok()?;
+    let head: Head = fast::read(&text[..starts[0]]).ok()?;
     let groups = (rayon::current_num_threads() * 4).max(1);
     let per = starts.len().div_ceil(groups);
     let bounds: Vec<(usize, usize, usize)> = starts
@@ -183,7 +184,7 @@ fn parse_chunked(text: &str) -> Option<schema::File> {
     let pieces: Option<Vec<Vec<schema::Member>>> = bounds
         .par_iter()
         .map(|&(from, to, n)| {
-            let p: Piece = toml::from_str(&text[from..to]).ok()?;
+            let p: Piece = fast::read(&text[from..to]).ok()?;
             (p.member.len() == n).then_some(p.member)
         })
         .collect();
@@ -194,7 +195,7 @@ fn parse_chunked(text: &str) -> Option<schema::File> {
 pub fn parse(src: &Source) -> Result<Package> {
     let file: schema::File = match parse_chunked(&src.text) {
         Some(f) => Ok(f),
-        None => toml::from_str(&src.text),
+        None => fast::read(&src.text),
     }
     .map_err(|e| {
         let mut message = e.message().trim().to_string();
