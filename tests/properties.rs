@@ -163,3 +163,60 @@ proptest! {
         }
     }
 }
+
+/// One number as each reading of the TOML gives it.
+#[derive(Debug, serde::Deserialize, PartialEq)]
+struct Number {
+    x: f64,
+    n: Option<i64>,
+}
+
+#[test]
+fn quick_reading_decides_plain_numbers() {
+    let q = input::fast::quick::<Number>("x = -1_234.567_8e-3\nn = 0x7f\n");
+    assert_eq!(q, Some(Number { x: -1.2345678, n: Some(127) }));
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(4000))]
+    /// The quick reading of the input (toml-spanner) gives every float and integer
+    /// literal exactly as the toml crate does, or gives up: many digits, exponents,
+    /// underscores, signs, and hexadecimal, octal and binary integers.
+    #[test]
+    fn quick_reading_gives_the_same_numbers(
+        neg in any::<bool>(),
+        int in "[1-9][0-9]{0,18}",
+        frac in "[0-9]{0,24}",
+        exp in prop::option::of(-330i32..330),
+        under in any::<bool>(),
+        n in any::<i64>(),
+        radix in 0usize..4,
+    ) {
+        let mut lit = format!("{}{int}", if neg { "-" } else { "" });
+        if under && int.len() > 2 {
+            lit = format!("{}_{}", &lit[..lit.len() - 1], &lit[lit.len() - 1..]);
+        }
+        if !frac.is_empty() {
+            lit = format!("{lit}.{frac}");
+        }
+        if let Some(e) = exp {
+            lit = format!("{lit}e{e}");
+        }
+        let int_lit = match radix {
+            0 => n.to_string(),
+            1 => format!("0x{:x}", n.unsigned_abs() >> 1),
+            2 => format!("0o{:o}", n.unsigned_abs() >> 1),
+            _ => format!("0b{:b}", n.unsigned_abs() >> 1),
+        };
+        let text = format!("x = {lit}\nn = {int_lit}\n");
+        let slow: Result<Number, _> = toml::from_str(&text);
+        match (input::fast::quick::<Number>(&text), slow) {
+            (Some(q), Ok(s)) => {
+                prop_assert_eq!(q.x.to_bits(), s.x.to_bits(), "{}", text);
+                prop_assert_eq!(q.n, s.n, "{}", text);
+            }
+            (Some(q), Err(e)) => prop_assert!(false, "{text}: read quickly as {q:?}, refused by the toml crate: {e}"),
+            (None, _) => {}
+        }
+    }
+}

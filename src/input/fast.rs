@@ -23,17 +23,18 @@ pub fn read<T: DeserializeOwned>(text: &str) -> Result<T, toml::de::Error> {
 pub fn quick<T: DeserializeOwned>(text: &str) -> Option<T> {
     let arena = toml_spanner::Arena::new();
     let doc = toml_spanner::parse(text, &arena).ok()?;
-    T::deserialize(TableDe(doc.table())).ok()
+    T::deserialize(TableDe(doc.table(), text)).ok()
 }
 
-/// A table of the parsed tree as a serde map.
-struct TableDe<'a, 'i>(&'a toml_spanner::Table<'i>);
+/// A table of the parsed tree as a serde map (with the text it was parsed from).
+struct TableDe<'a, 'i>(&'a toml_spanner::Table<'i>, &'a str);
 
 impl<'de> Deserializer<'de> for TableDe<'_, '_> {
     type Error = Error;
 
     fn deserialize_any<V: Visitor<'de>>(self, v: V) -> Result<V::Value, Error> {
-        v.visit_map(MapDeserializer::new(self.0.iter().map(|(k, item)| (k.name, ItemDe(item)))))
+        let text = self.1;
+        v.visit_map(MapDeserializer::new(self.0.iter().map(|(k, item)| (k.name, ItemDe(item, text)))))
     }
 
     serde::forward_to_deserialize_any! {
@@ -44,9 +45,9 @@ impl<'de> Deserializer<'de> for TableDe<'_, '_> {
 }
 
 /// One value of the parsed tree, handed to serde as the toml crate hands it: integers as
-/// i64, floats as f64, present values of optional fields as `Some`, dates through the
-/// toml crate's own datetime.
-struct ItemDe<'a, 'i>(&'a Item<'i>);
+/// i64, floats as f64, present values of optional fields as `Some`, dates as the toml
+/// crate's own datetime read from the same characters of the text.
+struct ItemDe<'a, 'i>(&'a Item<'i>, &'a str);
 
 impl<'de> IntoDeserializer<'de, Error> for ItemDe<'_, '_> {
     type Deserializer = Self;
@@ -56,11 +57,12 @@ impl<'de> IntoDeserializer<'de, Error> for ItemDe<'_, '_> {
 }
 
 impl ItemDe<'_, '_> {
-    /// The datetime as the toml crate's value.
-    fn datetime(d: &toml_spanner::DateTime) -> Result<toml::Value, Error> {
-        let mut buf = std::mem::MaybeUninit::uninit();
-        let text = d.format(&mut buf);
-        text.parse::<toml::value::Datetime>().map(toml::Value::Datetime).map_err(de::Error::custom)
+    /// The datetime as the toml crate reads it: from the characters that wrote it (a
+    /// datetime printed back would not keep its form: `08:00` would become `08:00:00`).
+    fn datetime(&self) -> Result<toml::Value, Error> {
+        let span = self.0.span();
+        let written = self.1.get(span.start as usize..span.end as usize).ok_or_else(|| de::Error::custom("no text"))?;
+        written.parse::<toml::value::Datetime>().map(toml::Value::Datetime).map_err(de::Error::custom)
     }
 }
 
@@ -76,9 +78,9 @@ impl<'de> Deserializer<'de> for ItemDe<'_, '_> {
             },
             Value::Float(f) => v.visit_f64(*f),
             Value::Boolean(b) => v.visit_bool(*b),
-            Value::Array(a) => v.visit_seq(SeqDeserializer::new(a.iter().map(ItemDe))),
-            Value::Table(t) => TableDe(t).deserialize_any(v),
-            Value::DateTime(d) => Self::datetime(d)?.deserialize_any(v).map_err(de::Error::custom),
+            Value::Array(a) => v.visit_seq(SeqDeserializer::new(a.iter().map(|item| ItemDe(item, self.1)))),
+            Value::Table(t) => TableDe(t, self.1).deserialize_any(v),
+            Value::DateTime(_) => self.datetime()?.deserialize_any(v).map_err(de::Error::custom),
         }
     }
 
@@ -93,7 +95,7 @@ impl<'de> Deserializer<'de> for ItemDe<'_, '_> {
         v: V,
     ) -> Result<V::Value, Error> {
         match self.0.value() {
-            Value::DateTime(d) => Self::datetime(d)?.deserialize_struct(name, fields, v).map_err(de::Error::custom),
+            Value::DateTime(_) => self.datetime()?.deserialize_struct(name, fields, v).map_err(de::Error::custom),
             _ => self.deserialize_any(v),
         }
     }
@@ -149,6 +151,9 @@ mod tests {
             ("offset datetime", "date = 2026-11-30T08:00:00Z\n"),
             ("local datetime", "date = 2026-11-30T08:00:00\n"),
             ("local time", "date = 08:00:00\n"),
+            ("fractional seconds", "date = 2026-11-30T08:00:00.123456789+01:30\n"),
+            ("time without seconds", "date = 2026-11-30T08:00\n"),
+            ("space for T", "date = 2026-11-30 08:00:00.5Z\n"),
             ("literal and multi-line strings", "title2 = 'x'\n"),
             ("integer forms", "date = 2026-11-30\n[[member]]\nid = 'a'\nlength = 1_200\nmu = 0x10\n"),
             ("floats", "date = 2026-11-30\n[[member]]\nid = 'a'\nlength = 1.5e2\nmu = -0.0\n"),

@@ -541,7 +541,14 @@ fn slim(frame: &mut typst::layout::Frame) {
                 _ => items.push((*p, it.clone())),
             }
         }
-        items.shrink_to_fit();
+        // the joined runs grew their glyphs and text by doubling
+        for (_, it) in &mut items {
+            if let FrameItem::Text(t) = it
+                && t.glyphs.capacity() > t.glyphs.len()
+            {
+                t.glyphs.shrink_to_fit();
+            }
+        }
         let mut out = frame.clone();
         out.clear();
         out.push_multiple(items);
