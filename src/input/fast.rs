@@ -171,6 +171,12 @@ mod tests {
             ),
             ("table redefined", "date = 2026-11-30\n[package]\n"),
             ("escapes", "date = 2026-11-30\nclient = \"\\u00e9\\t\\\"x\\\"\"\n"),
+            (
+                "multi-line strings",
+                "date = 2026-11-30\nnotes = \"\"\"\n  first \\\n  second\n\"\"\"\nclient = \'\'\'\nraw \\n\'\'\'\n",
+            ),
+            ("windows line ends", "date = 2026-11-30\r\nnotes = \"\"\"\r\na\r\nb\"\"\"\r\n"),
+            ("comments and blank lines", "date = 2026-11-30 # the day\n\n# end\n"),
         ] {
             texts.push((name.to_string(), format!("{head}{extra}")));
         }
