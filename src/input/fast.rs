@@ -3,8 +3,10 @@
 //! here), and [`ItemDe`] hands its tree to the same serde schema. It decides only input
 //! that reads cleanly: on any error, or any value it does not hand over exactly as the
 //! toml crate does (an integer beyond 64 bits), it gives up and [`read`] asks the toml
-//! crate, whose error message names the place. A test compares both readings of every
-//! example, hostile input and generated package.
+//! crate, whose error message names the place (deeply nested input too: toml-spanner
+//! has a depth limit). Tests compare both readings: the examples, the starters,
+//! forms of TOML (dates, strings, numbers, line ends), every hostile input
+//! (`tests/hostile.rs`) and random number literals (`tests/properties.rs`).
 
 use serde::de::value::{Error, MapDeserializer, SeqDeserializer};
 use serde::de::{self, DeserializeOwned, Deserializer, IntoDeserializer, Visitor};
