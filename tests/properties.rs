@@ -209,14 +209,6 @@ proptest! {
             _ => format!("0b{:b}", n.unsigned_abs() >> 1),
         };
         let text = format!("x = {lit}\nn = {int_lit}\n");
-        let slow: Result<Number, _> = toml::from_str(&text);
-        match (input::fast::quick::<Number>(&text), slow) {
-            (Some(q), Ok(s)) => {
-                prop_assert_eq!(q.x.to_bits(), s.x.to_bits(), "{}", text);
-                prop_assert_eq!(q.n, s.n, "{}", text);
-            }
-            (Some(q), Err(e)) => prop_assert!(false, "{text}: read quickly as {q:?}, refused by the toml crate: {e}"),
-            (None, _) => {}
-        }
+        quick_agrees::<Number>("number", &text);
     }
 }

@@ -173,9 +173,7 @@ fn seal(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> (Ve
 
 /// Renders the package.
 pub fn render(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates) -> Result<Rendered> {
-    let (payload, hash, view) = seal(pkg, src, a, templates);
-    let (pdf, pages) = typeset(pkg, src, &payload, view, &hash, templates, &|_| {})?;
-    Ok(Rendered { pdf, payload, hash, pages })
+    typeset_sealed(pkg, src, seal(pkg, src, a, templates), templates, &|_| {})
 }
 
 /// Renders the package as [`render`] does, telling `progress` what it is doing
@@ -187,9 +185,20 @@ pub fn render_reporting(
     templates: &Templates,
     progress: &(dyn Fn(String) + Sync),
 ) -> Result<Rendered> {
-    let (payload, hash, view) = seal(pkg, src, &a, templates);
+    let sealed = seal(pkg, src, &a, templates);
     // the payload holds all of it now; the sheets are typeset from the view
     drop(a);
+    typeset_sealed(pkg, src, sealed, templates, progress)
+}
+
+/// Typesets a sealed package: its payload, hash and view (see [`seal`]).
+fn typeset_sealed(
+    pkg: &Package,
+    src: &Source,
+    (payload, hash, view): (Vec<u8>, String, Value),
+    templates: &Templates,
+    progress: &(dyn Fn(String) + Sync),
+) -> Result<Rendered> {
     let (pdf, pages) = typeset(pkg, src, &payload, view, &hash, templates, progress)?;
     Ok(Rendered { pdf, payload, hash, pages })
 }
@@ -515,20 +524,14 @@ fn slim(frame: &mut typst::layout::Frame) {
                 _ => None,
             })
             .collect();
-        let mut last_text: Option<(Point, &typst::text::TextItem)> = None;
-        let mut work = groups.iter().any(Option::is_some);
-        for (p, it) in frame.items() {
-            if work {
-                break;
-            }
-            work = dropped(it, headings);
-            if let FrameItem::Text(t) = it {
-                work |= last_text.is_some_and(|(q, prev)| joins(q, prev, *p, t));
-                last_text = Some((*p, t));
-            } else if !matches!(it, FrameItem::Tag(_)) {
-                last_text = None;
-            }
-        }
+        // the items that stay, and whether any two in a row are runs to join
+        let kept = || frame.items().filter(|(_, it)| !dropped(it, headings));
+        let work = groups.iter().any(Option::is_some)
+            || kept().count() < frame.items().len()
+            || kept().zip(kept().skip(1)).any(|((pa, a), (pb, b))| match (a, b) {
+                (FrameItem::Text(a), FrameItem::Text(b)) => joins(*pa, a, *pb, b),
+                _ => false,
+            });
         if !work {
             return None;
         }
@@ -555,7 +558,7 @@ fn slim(frame: &mut typst::layout::Frame) {
                 _ => items.push((*p, it.clone())),
             }
         }
-        // the joined runs grew their glyphs and text by doubling
+        // the joined runs grew their glyphs by doubling
         for (_, it) in &mut items {
             if let FrameItem::Text(t) = it
                 && t.glyphs.capacity() > t.glyphs.len()

@@ -104,3 +104,19 @@ pub fn replicated(example_name: &str, n: usize) -> String {
     }
     out
 }
+
+/// Both readings of a TOML text into `T` (the quick one, `input::fast::quick`, and the
+/// toml crate's): equal where the quick one decides (compared as Debug text, which
+/// shows every float exactly), and the quick one never accepts what the toml crate
+/// refuses. Returns whether the quick reading decided.
+pub fn quick_agrees<T: serde::de::DeserializeOwned + std::fmt::Debug>(name: &str, text: &str) -> bool {
+    let slow: Result<T, _> = toml::from_str(text);
+    match (input::fast::quick::<T>(text), slow) {
+        (Some(q), Ok(s)) => {
+            assert_eq!(format!("{q:?}"), format!("{s:?}"), "{name}: the readings differ\n{text}");
+            true
+        }
+        (Some(q), Err(e)) => panic!("{name}: read quickly as {q:?}, but the toml crate refuses it: {e}\n{text}"),
+        (None, _) => false,
+    }
+}
