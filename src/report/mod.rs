@@ -2,6 +2,7 @@
 //! embedded as a library, to a PDF/A-3b file with the input and the payload attached.
 
 pub mod payload;
+mod shelf;
 pub mod world;
 
 use crate::analysis::Analysis;
@@ -199,8 +200,10 @@ fn typeset_sealed(
     templates: &Templates,
     progress: &(dyn Fn(String) + Sync),
 ) -> Result<Rendered> {
+    // one copy of the payload serves the run that attaches it
+    let payload = Bytes::new(payload);
     let (pdf, pages) = typeset(pkg, src, &payload, view, &hash, templates, progress)?;
-    Ok(Rendered { pdf, payload, hash, pages })
+    Ok(Rendered { pdf, payload: payload.to_vec(), hash, pages })
 }
 
 /// The package is typeset in several Typst runs, each in a world of its own (so the
@@ -208,20 +211,23 @@ fn typeset_sealed(
 /// 1. the members, [`MEMBERS_PER_RUN`] or more at a time (`members.typ`), two runs at
 ///    once; where each anchor (metadata labelled `toc:...`) and each subject mark
 ///    (labelled `subject`) falls is noted, and the sheets keep only the introspection
-///    tags of headings ([`slim`]);
+///    tags of headings ([`slim`]); they are held packed ([`shelf`]) until the PDF is
+///    written;
 /// 2. the front and back matter (`package.typ`), told where the members' anchors are,
 ///    for the contents and the summary; it is split at the sheet of the anchor
 ///    `toc:summary`;
 /// 3. the subjects and numbers of the sheets (`stamps.typ`, given every subject mark in
-///    sheet order): one page per sheet, laid over the sheet of the same number.
+///    sheet order): one page per sheet, laid over the sheet of the same number; the
+///    members' sheets are unpacked meanwhile.
 ///
-/// Typst's caches are emptied between runs, so the peak memory is that of two runs plus
-/// the finished sheets, whatever the length of the package. The sheets are the same as
-/// those of one run of the whole package, but that the summary always begins a sheet.
+/// Typst's caches are emptied between runs, and give their memory back (the patched
+/// comemo, vendor/comemo), so the peak memory is that of two runs plus the packed
+/// sheets, or of the unpacked sheets and the PDF being written. The sheets are the same
+/// as those of one run of the whole package, but that the summary always begins a sheet.
 fn typeset(
     pkg: &Package,
     src: &Source,
-    payload: &[u8],
+    payload: &Bytes,
     view: Value,
     hash: &str,
     templates: &Templates,
@@ -261,7 +267,7 @@ fn typeset(
     };
 
     // 1. the members, a few per run, two runs at a time
-    let mut member_pages: Vec<Page> = Vec::new();
+    let mut member_pages: Vec<shelf::Packed> = Vec::new();
     let mut anchors = Map::new();
     // subject marks: sheet (of the members' sheets) and place
     let mut member_marks: Vec<(usize, f64, String)> = Vec::new();
@@ -287,9 +293,9 @@ fn typeset(
                 anchors.insert(key, json!({"page": member_pages.len() + page, "x": at.x.to_pt(), "y": at.y.to_pt()}));
             }
             member_marks.extend(marks.subjects.into_iter().map(|(page, y, s)| (member_pages.len() + page, y, s)));
-            member_pages.extend(doc.pages().iter().cloned().map(|mut p| {
+            member_pages.par_extend(doc.pages().par_iter().cloned().map(|mut p| {
                 slim(&mut p.frame);
-                p
+                shelf::pack(p)
             }));
         }
     }
@@ -300,8 +306,7 @@ fn typeset(
     let mut v = head;
     v.insert("members".into(), Value::Array(entries));
     v.insert("sheets".into(), json!({"members": member_pages.len(), "anchors": anchors}));
-    let attached =
-        [("payload.json", Bytes::new(payload.to_vec())), ("input.toml", Bytes::new(src.text.as_bytes().to_vec()))];
+    let attached = [("payload.json", payload.clone()), ("input.toml", Bytes::new(src.text.as_bytes().to_vec()))];
     // at the root: the attachments are named by their paths
     let outer = run("", MAIN, crate::seal::canonical(&Value::Object(v)), &attached)?;
     comemo::evict(0);
@@ -328,8 +333,14 @@ fn typeset(
     v.insert("stamp".into(), json!({"total": total, "marks": marks}));
     let view = with_entries(&lean, v);
     progress(format!("numbering {total} sheets"));
-    let stamps = run("s", STAMPS, view, &[])?;
+    // the members' sheets are unpacked meanwhile: the stamps are one run, on one thread
+    let (stamps, members) = rayon::join(
+        || run("s", STAMPS, view, &[]),
+        || member_pages.into_par_iter().map(shelf::unpack).collect::<Vec<Option<Page>>>(),
+    );
+    let stamps = stamps?;
     comemo::evict(0);
+    give_back();
     if stamps.pages().len() != total {
         return Err(Error::Render(format!(
             "stamps.typ made {} pages for a package of {total} sheets; it must make one per sheet",
@@ -340,8 +351,12 @@ fn typeset(
     // the sheets in order, each with its subject and number laid over it
     let front = outer.pages()[..back_from].iter().cloned();
     let back = outer.pages()[back_from..].iter().cloned();
+    let members = members
+        .into_iter()
+        .map(|p| p.ok_or_else(|| Error::Render("a member's sheet, kept packed, did not read back".into())));
     let mut pages = EcoVec::with_capacity(total);
-    for (mut page, stamp) in front.chain(member_pages).chain(back).zip(stamps.pages()) {
+    for (page, stamp) in front.map(Ok).chain(members).chain(back.map(Ok)).zip(stamps.pages()) {
+        let mut page = page?;
         page.frame.push_frame(Point::zero(), stamp.frame.clone());
         pages.push(page);
     }
