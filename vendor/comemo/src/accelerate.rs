@@ -22,8 +22,9 @@ pub fn id() -> usize {
 
 /// Evict the accelerators.
 ///
-/// Patched: with `release`, their memory goes too. Every accelerator belongs to an
-/// ID below the new offset, so none can be asked for again.
+/// Patched: with `release` (from `evict_and_release`), their memory goes too.
+/// Every accelerator belongs to an ID below the new offset, so none can be asked
+/// for again.
 pub fn evict(release: bool) {
     let mut accelerators = ACCELERATORS.write();
     let (offset, vec) = &mut *accelerators;

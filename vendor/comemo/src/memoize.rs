@@ -1,5 +1,5 @@
 use std::sync::LazyLock;
-use std::sync::atomic::{AtomicUsize, Ordering};
+use std::sync::atomic::{AtomicBool, AtomicUsize, Ordering};
 
 use parking_lot::RwLock;
 use siphasher::sip128::{Hasher128, SipHasher13};
@@ -96,14 +96,24 @@ where
 /// This removes all memoized results from the cache whose age is larger than or
 /// equal to `max_age`. The age of a result grows by one during each eviction
 /// and is reset to zero when the result produces a cache hit. Set `max_age` to
-/// zero to completely clear the cache; then (patched) the memory of the caches
-/// goes back to the allocator as well.
+/// zero to completely clear the cache.
 pub fn evict(max_age: usize) {
     for subevict in EVICTORS.read().iter() {
         subevict(max_age);
     }
 
-    accelerate::evict(max_age == 0);
+    accelerate::evict(max_age == 0 && RELEASE.load(Ordering::SeqCst));
+}
+
+/// Whether the eviction going on gives back the memory of the caches (patched in).
+static RELEASE: AtomicBool = AtomicBool::new(false);
+
+/// Completely clear the cache, as `evict(0)` does, and give back the memory its
+/// tables had grown to, which `evict` keeps for their next use (patched in).
+pub fn evict_and_release() {
+    RELEASE.store(true, Ordering::SeqCst);
+    evict(0);
+    RELEASE.store(false, Ordering::SeqCst);
 }
 
 /// Register an eviction function in the global list.
@@ -149,10 +159,10 @@ struct CacheEntry<C, Out> {
 impl<C, Out: 'static> CacheData<C, Out> {
     /// Evict all entries whose age is larger than or equal to `max_age`.
     ///
-    /// Patched: with `max_age` zero every entry goes, and so does the memory the
-    /// tree's tables had grown to (`retain` keeps it).
+    /// Patched: called by `evict_and_release`, every entry goes, and so does the
+    /// memory the tree's tables had grown to (`retain` keeps it).
     fn evict(&mut self, max_age: usize) {
-        if max_age == 0 {
+        if max_age == 0 && RELEASE.load(Ordering::SeqCst) {
             self.tree = CallTree::new();
             return;
         }
