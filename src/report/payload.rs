@@ -41,6 +41,18 @@ fn shown_math(v: f64, u: Unit) -> String {
     if tag.is_empty() { s } else { format!("{s} times {tag}") }
 }
 
+/// The JSON object `obj` with `fields` moved in. `json!` copies each value it is given
+/// by serialising it, which for a member's steps and locations cost most of the time of
+/// building the payload.
+fn with_moved<const N: usize>(mut obj: Value, fields: [(&str, Value); N]) -> Value {
+    if let Value::Object(map) = &mut obj {
+        for (k, v) in fields {
+            map.insert(k.to_string(), v);
+        }
+    }
+    obj
+}
+
 /// A step as the templates read it.
 pub fn step_view(st: &Step, sys: System) -> Value {
     let constant = matches!(st.formula, Some(crate::trace::Expr::Num(_)));
@@ -58,7 +70,20 @@ pub fn step_view(st: &Step, sys: System) -> Value {
     let total =
         ws + if formula.is_some() { wf + 3.0 } else { 0.0 } + if subst.is_some() { wsub + 3.0 } else { 0.0 } + result_w;
     let stack = total > 88.0;
-    json!({
+    let inputs: Vec<Value> = st
+        .inputs
+        .iter()
+        .map(|i| {
+            json!({
+                "sym": i.symbol.math,
+                "plain": i.symbol.plain,
+                "value": i.value,
+                "unit": unit_name(i.unit, sys),
+                "kind": i.unit,
+            })
+        })
+        .collect();
+    let v = json!({
         "id": st.id,
         "short": short,
         "stack": stack,
@@ -76,14 +101,8 @@ pub fn step_view(st: &Step, sys: System) -> Value {
         "clause": st.clause,
         "note": st.note,
         "tree": st.formula,
-        "inputs": st.inputs.iter().map(|i| json!({
-            "sym": i.symbol.math,
-            "plain": i.symbol.plain,
-            "value": i.value,
-            "unit": unit_name(i.unit, sys),
-            "kind": i.unit,
-        })).collect::<Vec<_>>(),
-    })
+    });
+    with_moved(v, [("inputs", Value::Array(inputs))])
 }
 
 fn steps_view(steps: &[Step], sys: System) -> Value {
@@ -353,7 +372,8 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
         })
         .collect();
     let locations: Vec<Value> = m.locations.iter().map(|l| location_view(l, sys)).collect();
-    json!({
+    let curve = m.curve.as_ref().map_or(Value::Null, |c| curve_view(c, &m.locations[m.governing], sys));
+    let v = json!({
         "id": m.id,
         "description": input.description,
         "kind": input.kind,
@@ -366,17 +386,22 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
             "topping_thickness": input.topping.as_ref().map(|t| format!("{} {}", show(t.thickness), u.length)),
             "width": format!("{} {}", show(m.section.geometry.x_max - m.section.geometry.x_min), u.length),
         },
-        "input_rows": rows,
-        "strands": strands,
-        "bars": bars,
-        "steps": steps,
-        "locations": locations,
         "defaults": input.defaults,
         "input": input,
-        "curve": m.curve.as_ref().map(|c| curve_view(c, &m.locations[m.governing], sys)),
         "curve_data": m.curve,
         "curve_error": m.curve_error,
-    })
+    });
+    with_moved(
+        v,
+        [
+            ("input_rows", Value::Array(rows)),
+            ("strands", Value::Array(strands)),
+            ("bars", Value::Array(bars)),
+            ("steps", steps),
+            ("locations", Value::Array(locations)),
+            ("curve", curve),
+        ],
+    )
 }
 
 fn shape_dims(s: &crate::section::shapes::Shape) -> Vec<(&'static str, f64)> {
@@ -499,7 +524,7 @@ pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Va
         .file_name()
         .map(|n| n.to_string_lossy().into_owned())
         .unwrap_or_else(|| src.name.clone());
-    json!({
+    let v = json!({
         "format": 1,
         "program": {"name": "strainsheet", "version": env!("CARGO_PKG_VERSION")},
         "templates": prov.templates,
@@ -532,9 +557,8 @@ pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Va
         },
         "defaults": defaults,
         "warnings": pkg.warnings,
-        "summary": summary,
-        "members": members,
-    })
+    });
+    with_moved(v, [("summary", Value::Array(summary)), ("members", Value::Array(members))])
 }
 
 /// What the templates read (view.json): the payload less what no sheet prints (formula
