@@ -314,8 +314,7 @@ fn typeset(
     }
     drop(members);
     // the caches' tables kept their size for the next batch; none comes
-    comemo::evict_and_release();
-    give_back();
+    phase_done();
 
     // 2. the front and back matter
     progress("typesetting the cover, contents, design basis, summary and appendix".into());
@@ -325,8 +324,7 @@ fn typeset(
     let attached = [("payload.json", payload.clone()), ("input.toml", Bytes::new(src.text.as_bytes().to_vec()))];
     // at the root: the attachments are named by their paths
     let outer = run("", MAIN, crate::seal::canonical(&Value::Object(v)), &attached)?;
-    comemo::evict_and_release();
-    give_back();
+    phase_done();
     let outer_marks = marks_of(&outer);
     let back_from =
         outer_marks.anchors.iter().find(|(key, _, _)| key == "toc:summary").map(|(_, page, _)| page - 1).ok_or_else(
@@ -355,8 +353,7 @@ fn typeset(
         || member_pages.into_par_iter().map(shelf::unpack).collect::<Vec<Option<Page>>>(),
     );
     let stamps = stamps?;
-    comemo::evict_and_release();
-    give_back();
+    phase_done();
     if stamps.pages().len() != total {
         return Err(Error::Render(format!(
             "stamps.typ made {} pages for a package of {total} sheets; it must make one per sheet",
@@ -401,6 +398,15 @@ fn typeset(
     // the PDF need not wait for it
     rayon::spawn(move || drop(doc));
     Ok((pdf, sheets))
+}
+
+/// Ends a phase of the typesetting (the members, the front and back matter, the stamps):
+/// Typst's caches are emptied and give back the memory of their tables (the patched
+/// comemo, vendor/comemo), and that memory goes back to the system ([`give_back`]).
+/// Between batches of member runs `comemo::evict(0)` alone empties the caches.
+fn phase_done() {
+    comemo::evict_and_release();
+    give_back();
 }
 
 /// Hands the memory the last runs freed back to the system now, on every thread, rather

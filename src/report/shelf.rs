@@ -26,11 +26,12 @@ pub(super) struct Packed {
     groups: Vec<GroupItem>,
     /// The fonts, colours, strokes and languages of its text, written as their places
     /// in these lists.
-    shared: Shared,
+    tables: Tables,
 }
 
+/// The distinct fonts, colours, strokes and languages of a sheet's text.
 #[derive(Default)]
-struct Shared {
+struct Tables {
     fonts: Vec<FontInstance>,
     paints: Vec<Paint>,
     strokes: Vec<FixedStroke>,
@@ -55,10 +56,10 @@ const SAME_SPAN: u8 = 16;
 pub(super) fn pack(mut page: Page) -> Packed {
     let frame = std::mem::replace(&mut page.frame, Frame::soft(Size::zero()));
     let mut packed =
-        Packed { page, bytes: Vec::new(), items: Vec::new(), groups: Vec::new(), shared: Shared::default() };
-    let mut shared = Shared::default();
-    shared.put_frame(&frame, &mut packed);
-    packed.shared = shared;
+        Packed { page, bytes: Vec::new(), items: Vec::new(), groups: Vec::new(), tables: Tables::default() };
+    let mut tables = Tables::default();
+    tables.put_frame(&frame, &mut packed);
+    packed.tables = tables;
     packed.bytes.shrink_to_fit();
     packed.items.shrink_to_fit();
     packed.groups.shrink_to_fit();
@@ -68,11 +69,11 @@ pub(super) fn pack(mut page: Page) -> Packed {
 /// The sheet as it was packed; `None` if the bytes do not read (which would be a fault
 /// of this module).
 pub(super) fn unpack(packed: Packed) -> Option<Page> {
-    let Packed { mut page, bytes, items, groups, shared } = packed;
+    let Packed { mut page, bytes, items, groups, tables } = packed;
     let mut r = Reader { bytes: &bytes, at: 0 };
     let mut items = items.into_iter();
     let mut groups = groups.into_iter();
-    let frame = shared.get_frame(&mut r, &mut items, &mut groups)?;
+    let frame = tables.get_frame(&mut r, &mut items, &mut groups)?;
     if r.at != bytes.len() || items.next().is_some() || groups.next().is_some() {
         return None;
     }
@@ -80,7 +81,7 @@ pub(super) fn unpack(packed: Packed) -> Option<Page> {
     Some(page)
 }
 
-impl Shared {
+impl Tables {
     fn put_frame(&mut self, frame: &Frame, out: &mut Packed) {
         let b = &mut out.bytes;
         put_f(b, frame.width().to_raw());
@@ -439,7 +440,7 @@ $ f_(p s) = f_(p u) (1 - gamma_p / beta_1 (rho_p f_(p u) / (f'_c))) quad sum_(i=
     }
 
     #[test]
-    fn packing_is_several_times_smaller() {
+    fn packing_takes_less_than_half() {
         // the glyphs and items a frame holds, against the bytes and kept items of its pack
         fn held(f: &Frame) -> usize {
             f.items()
@@ -484,7 +485,7 @@ $ f_(p s) = f_(p u) (1 - gamma_p / beta_1 (rho_p f_(p u) / (f'_c))) quad sum_(i=
         p.groups.push(g);
         assert!(unpack(p).is_none());
         let mut p = pack(page);
-        p.shared.fonts.clear();
+        p.tables.fonts.clear();
         assert!(unpack(p).is_none());
     }
 }
