@@ -515,6 +515,7 @@ class StrandLayer:
             self.depth_end, self.depth_harp = h - q("height_end"), h - q("height_harp")
         if self.harped:
             self.harp_x = q("harp_x")
+            self.harp_x2 = q("harp_x2") if "harp_x2" in t else None
         self.count = int(t["count"])
         self.fpu = quantity(t["fpu"], "stress", system) if "fpu" in t else (270.0 if system == "us" else 1860.0)
         g250, g270 = (250.0, 270.0) if system == "us" else (1725.0, 1860.0)
@@ -557,12 +558,18 @@ class StrandLayer:
     def total_area(self):
         return self.area * self.count
 
-    def depth_at(self, x):
-        """Depth below the top of the precast unit at x from the end (None: at the harp)."""
+    def depth_at(self, x, length):
+        """Depth below the top of the precast unit at x from the left end of a member of
+        the given length (x None: at the harp)."""
         if not self.harped:
             return self.depth
-        if x is not None and x < self.harp_x:
+        if x is None:
+            return self.depth_harp
+        x2 = self.harp_x2 if self.harp_x2 is not None else length - self.harp_x
+        if x < self.harp_x:
             return self.depth_end + (self.depth_harp - self.depth_end) * x / self.harp_x
+        if x > x2:
+            return self.depth_end + (self.depth_harp - self.depth_end) * (length - x) / (length - x2)
         return self.depth_harp
 
 
@@ -902,12 +909,13 @@ class StrandAt:
 
 
 def transfer(p, s, x):
-    """Effective prestress at x within the transfer length (25.4.8.1, R25.4.8.1)."""
+    """Effective prestress at x within the transfer length (25.4.8.1, R25.4.8.1),
+    measured from the nearer member end."""
     if x is None:
         return s.fse, True, None
     d1 = 3.0 if p.system == "us" else 21.0
     ltr = s.fse / d1 * s.diameter
-    x_bond = x - s.debonded_length
+    x_bond = min(x, p.m.length - x) - s.debonded_length
     if x_bond <= 0.0:
         fse, active, state = 0.0, False, "debonded at this section"
     elif x_bond < ltr:
@@ -1107,7 +1115,7 @@ def analyse_location(p, loc):
     # strand at x: depth (harped profile), prestress after transfer, eps1
     at = []
     for s in m.strands:
-        depth_p = s.depth_at(loc.x)
+        depth_p = s.depth_at(loc.x, m.length)
         y = p.top_p - depth_p
         fse, active, dev = transfer(p, s, loc.x)
         at.append(StrandAt(depth_p + p.t, p.precast.yc - y, fse, fse / s.curve.eps_modulus, active, dev))

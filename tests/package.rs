@@ -157,7 +157,7 @@ name = "]; #panic(\"x\")"
 [[member]]
 id = "#read(\"x\")"
 description = "$ 1 + 1 $ and *emphasis*"
-mu = 100.0
+length = 240.0
 [member.concrete]
 fc = 6.0
 [member.section]
@@ -172,6 +172,7 @@ fse = 160.0
 [[member.location]]
 name = "#pagebreak() \\ <x>"
 x = 120.0
+mu = 100.0
 "##,
     );
     let src = Source { name: "hostile.toml".into(), text };

@@ -212,3 +212,101 @@ proptest! {
         quick_agrees::<Number>("number", &text);
     }
 }
+
+/// A layer of a member with a length: straight, harped symmetrically, or debonded at
+/// both ends.
+#[derive(Debug, Clone)]
+struct LongLayer {
+    depth_frac: f64,
+    end_frac: f64,
+    harp_frac: Option<f64>,
+    debond: f64,
+    count: u32,
+    fse: f64,
+}
+
+fn long_layer() -> impl Strategy<Value = LongLayer> {
+    (
+        0.6f64..0.92,
+        0.2f64..0.6,
+        prop::option::of(0.2f64..0.5),
+        prop_oneof![Just(0.0), 6.0f64..120.0],
+        1u32..6,
+        100.0f64..190.0,
+    )
+        .prop_map(|(depth_frac, end_frac, harp_frac, debond, count, fse)| LongLayer {
+            depth_frac,
+            end_frac,
+            harp_frac,
+            debond,
+            count,
+            fse,
+        })
+}
+
+fn long_member_toml(s: &Sec, length: f64, layers: &[LongLayer], topping: Option<f64>, xs: &[f64]) -> String {
+    let (sec, h) = section_toml(s);
+    let mut t = format!(
+        "\n[[member]]\nid = \"S\"\nlength = {length}\nmnc = 40.0\n[member.concrete]\nfc = 6.0\n[member.section]\n{sec}"
+    );
+    if let Some(th) = topping {
+        t.push_str(&format!("[member.topping]\nthickness = {th}\nfc = 4.0\n"));
+    }
+    for l in layers {
+        let level = match l.harp_frac {
+            Some(hf) => {
+                format!("depth_end = {}\ndepth_harp = {}\nharp_x = {}\n", l.end_frac * h, l.depth_frac * h, hf * length)
+            }
+            None => format!("depth = {}\n", l.depth_frac * h),
+        };
+        t.push_str(&format!("[[member.strands]]\n{level}count = {}\ndiameter = 0.5\nfse = {}\n", l.count, l.fse));
+        if l.debond > 0.0 {
+            t.push_str(&format!("debonded_length = {}\n", l.debond));
+        }
+    }
+    for (k, x) in xs.iter().enumerate() {
+        t.push_str(&format!("[[member.location]]\nname = \"p{k}\"\nx = {x}\nmu = 10.0\n"));
+    }
+    t
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 300, .. ProptestConfig::default() })]
+
+    /// A member is the same seen from either end: for a symmetric member (straight,
+    /// symmetrically harped and both-ends debonded layers) the design strength, the
+    /// cracking moment and the strand depths at x equal those at length - x.
+    #[test]
+    fn design_strength_is_symmetric_along_the_member(
+        s in section(),
+        length in 240.0f64..900.0,
+        layers in prop::collection::vec(long_layer(), 1..4),
+        topping in prop::option::of(1.5f64..4.0),
+        fracs in prop::collection::vec(0.0f64..1.0, 1..4),
+    ) {
+        let mut xs = Vec::new();
+        for f in &fracs {
+            xs.push(f * length);
+            xs.push(length - f * length);
+        }
+        let text = format!("{HEAD_US}{}", long_member_toml(&s, length, &layers, topping, &xs));
+        let pkg = load(&text);
+        prop_assume!(pkg.is_some());
+        let r = match analysis::analyze(&pkg.unwrap(), false) {
+            Ok(r) => r,
+            Err(_) => return Ok(()),
+        };
+        let locs = &r.members[0].locations;
+        for pair in locs.chunks(2) {
+            let (a, b) = (&pair[0], &pair[1]);
+            let close = |p: f64, q: f64| (p - q).abs() <= 1e-9 * p.abs().max(q.abs()).max(1e-6);
+            prop_assert!(close(a.phi_mn, b.phi_mn), "phi Mn at x = {:?}: {} but at {:?}: {}", a.x, a.phi_mn, b.x, b.phi_mn);
+            prop_assert!(close(a.phi, b.phi), "phi {} vs {}", a.phi, b.phi);
+            prop_assert!(close(a.mcr, b.mcr), "Mcr {} vs {}", a.mcr, b.mcr);
+            for (sa, sb) in a.strands.iter().zip(&b.strands) {
+                prop_assert!(close(sa.depth, sb.depth), "depth {} vs {}", sa.depth, sb.depth);
+                prop_assert!(close(sa.stress, sb.stress), "stress {} vs {}", sa.stress, sb.stress);
+            }
+        }
+    }
+}

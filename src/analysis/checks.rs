@@ -5,7 +5,7 @@
 
 use super::solve::{Law, Model, State};
 use super::{Approximate, Development, MinReinforcement, Prepared, StrandAt, is_slab, si, sy};
-use crate::input::model::StrandLayer;
+use crate::input::model::{End, StrandLayer};
 use crate::material::concrete::EPS_CU;
 use crate::trace::{Step, Trace, Unit, f::*, show};
 use crate::units::System;
@@ -24,22 +24,23 @@ fn dev_divisors(sys: System) -> (f64, f64) {
     }
 }
 
-/// Transfer length and the effective prestress at x (before the solution).
+/// Transfer length and the effective prestress at a section `from_end` (the nearer end
+/// and the distance to it), before the solution.
 pub(super) fn transfer(
     p: &Prepared,
     li: usize,
     i: usize,
     s: &StrandLayer,
-    x: Option<f64>,
+    from_end: Option<(End, f64)>,
     tr: &mut Trace,
 ) -> (f64, bool, Option<Development>) {
-    let Some(x) = x else {
+    let Some((end, xe)) = from_end else {
         return (s.fse, true, None);
     };
     let k = i + 1;
     let (d1, _) = dev_divisors(p.sys);
     let ltr = s.fse / d1 * s.diameter;
-    let x_bond = x - s.debonded_length;
+    let x_bond = xe - s.debonded_length;
     tr.rec(|| {
         Step::new(
             "development",
@@ -67,10 +68,13 @@ pub(super) fn transfer(
                 si("x", "b", "xb", k),
             )
             .formula(sub(v(0), v(1)))
-            .input(sy("x", "x"), x, Unit::Length)
+            .input(sy("x_e", "xe"), xe, Unit::Length)
             .input(si("ell", "\"db\"", "l_debond", k), s.debonded_length, Unit::Length)
             .result(x_bond, Unit::Length)
-            .note("distance from where the bond begins")
+            .note(format!(
+                "distance from where the bond begins, debonded over ℓdb at each end; from the {}",
+                end.name()
+            ))
         });
     }
     let (fse_here, active, state) = if x_bond <= 0.0 {
@@ -82,6 +86,8 @@ pub(super) fn transfer(
     };
     let dev = Development {
         layer: k,
+        end,
+        x_end: xe,
         x_bond,
         debonded_length: s.debonded_length,
         transfer_length: ltr,
@@ -145,6 +151,7 @@ pub(super) fn development(
     }
     let xb = dev.x_bond;
     let ltr = dev.transfer_length;
+    let end = dev.end;
     if xb >= ld {
         dev.state = "fully developed";
         tr.rec(|| {
@@ -157,7 +164,8 @@ pub(super) fn development(
             .result(xb, Unit::Length)
             .clause("ACI 318-19 25.4.8.3")
             .note(format!(
-                "at least ℓd = {} {}: the strand is fully developed here and its stress is not limited",
+                "bonded length from the {}, at least ℓd = {} {}: the strand is fully developed here and its stress is not limited",
+                dev.end.name(),
                 show(ld),
                 p.sys.names().length
             ))
@@ -185,7 +193,7 @@ pub(super) fn development(
                 .input(si("x", "b", "xb", k), xb, Unit::Length)
                 .input(si("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
                 .result(cap, Unit::Stress)
-                .note("within the transfer length")
+                .note(format!("within the transfer length from the {}", end.name()))
         } else {
             st.formula(add(vec![v(0), mul(vec![div(sub(v(1), v(2)), sub(v(3), v(2))), sub(v(4), v(0))])]))
                 .input(si("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
@@ -194,7 +202,7 @@ pub(super) fn development(
                 .input(si("ell", "d", "ld", k), ld, Unit::Length)
                 .input(si("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
                 .result(cap, Unit::Stress)
-                .note("between the transfer and development lengths: linear")
+                .note(format!("between the transfer and development lengths from the {}: linear", end.name()))
         }
     });
     let ratio = if xb <= ltr { 0.0 } else { (xb - ltr) / (ld - ltr) };

@@ -135,7 +135,11 @@ pub struct LayerOut {
 #[derive(Debug, Clone, Serialize)]
 pub struct Development {
     pub layer: usize,
-    /// Distance from where bonding begins.
+    /// The nearer member end, from which transfer, development and debonding are measured.
+    pub end: crate::input::model::End,
+    /// Distance from that end.
+    pub x_end: f64,
+    /// Distance from where bonding begins (x_end less the debonded length).
     pub x_bond: f64,
     pub debonded_length: f64,
     pub transfer_length: f64,
@@ -587,16 +591,38 @@ struct StrandAt {
 }
 
 /// Each strand layer at a location: depth (harped profile at x), effective prestress
-/// after transfer, and whether it is bonded there.
+/// after transfer, and whether it is bonded there. Transfer, development, debonding and
+/// the harp profile are measured from the nearer member end.
 fn strands_at(p: &Prepared, li: usize, loc: &crate::input::model::Location, tr: &mut Trace) -> Vec<StrandAt> {
     let m = p.m;
+    let along = m.along(loc);
+    let from_end = along.map(|a| {
+        let (end, xe) = a.nearer_end();
+        tr.rec(|| {
+            Step::new("development", format!("L{}.dev.xe", li + 1), "Distance to the nearer member end", sy("x_e", "xe"))
+                .formula(min(vec![v(0), sub(v(1), v(0))]))
+                .input(sy("x", "x"), a.x, Unit::Length)
+                .input(sy("L", "L"), a.length, Unit::Length)
+                .result(xe, Unit::Length)
+                .note(format!(
+                    "x from the left end, L end to end: the {} governs; transfer, development, debonding and the harp profile are measured from it",
+                    end.name()
+                ))
+        });
+        (end, xe)
+    });
     m.strands
         .iter()
         .enumerate()
         .map(|(i, s)| {
-            let depth_p = s.profile.depth_at(loc.x);
+            let depth_p = s.profile.depth_at(along);
+            if let (crate::input::model::Profile::Harped { depth_end, depth_harp, harp_x, harp_x2, .. }, Some(a)) =
+                (s.profile, along)
+            {
+                record_harped_depth(tr, li, i + 1, a, depth_end, depth_harp, harp_x, harp_x2, depth_p);
+            }
             let y = p.top_p - depth_p;
-            let (fse, active, dev) = checks::transfer(p, li, i, s, loc.x, tr);
+            let (fse, active, dev) = checks::transfer(p, li, i, s, from_end, tr);
             StrandAt {
                 d: depth_p + p.t,
                 yb: p.precast.yc - y,
@@ -608,6 +634,56 @@ fn strands_at(p: &Prepared, li: usize, loc: &crate::input::model::Location, tr: 
             }
         })
         .collect()
+}
+
+/// The depth of a harped layer at x, from the nearer end's slope (or the harp depth
+/// between the harp points).
+#[allow(clippy::too_many_arguments)]
+fn record_harped_depth(
+    tr: &mut Trace,
+    li: usize,
+    k: usize,
+    a: crate::input::model::Along,
+    depth_end: f64,
+    depth_harp: f64,
+    harp_x: f64,
+    harp_x2: Option<f64>,
+    depth: f64,
+) {
+    let x2 = harp_x2.unwrap_or(a.length - harp_x);
+    tr.rec(|| {
+        let st = Step::new(
+            "prestress",
+            format!("L{}.prestress.dharp.{k}", li + 1),
+            format!("Depth of harped layer {k} at x, below the top of the precast unit"),
+            si("d", "\"h\"", "dh", k),
+        );
+        if a.x < harp_x {
+            st.formula(add(vec![v(0), mul(vec![sub(v(1), v(0)), div(v(2), v(3))])]))
+                .input(sy("d_\"end\"", "d_end"), depth_end, Unit::Length)
+                .input(sy("d_\"harp\"", "d_harp"), depth_harp, Unit::Length)
+                .input(sy("x", "x"), a.x, Unit::Length)
+                .input(sy("x_h", "xh"), harp_x, Unit::Length)
+                .result(depth, Unit::Length)
+                .note("between the left end and the first harp point: linear")
+        } else if a.x > x2 {
+            st.formula(add(vec![v(0), mul(vec![sub(v(1), v(0)), div(sub(v(2), v(3)), sub(v(2), v(4)))])]))
+                .input(sy("d_\"end\"", "d_end"), depth_end, Unit::Length)
+                .input(sy("d_\"harp\"", "d_harp"), depth_harp, Unit::Length)
+                .input(sy("L", "L"), a.length, Unit::Length)
+                .input(sy("x", "x"), a.x, Unit::Length)
+                .input(sy("x_(h 2)", "xh2"), x2, Unit::Length)
+                .result(depth, Unit::Length)
+                .note("between the second harp point and the right end: linear, measured from the right end")
+        } else {
+            st.result(depth, Unit::Length).note(format!(
+                "between the harp points (x = {} and {} {}): the harp depth",
+                crate::trace::show(harp_x),
+                crate::trace::show(x2),
+                "from the left end"
+            ))
+        }
+    });
 }
 
 pub fn analyze_member(m: &Member, sys: System, trace: bool) -> Result<MemberResult> {

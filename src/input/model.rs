@@ -149,22 +149,68 @@ pub struct Topping {
 pub enum Profile {
     /// Straight, at a depth below the top of the precast unit.
     Straight { depth: f64 },
-    /// Harped: depth at the member end, at the harp point, and the harp point's distance
-    /// from the end. Between them the depth varies linearly; beyond, it is `depth_harp`.
-    Harped { depth_end: f64, depth_harp: f64, harp_x: f64 },
+    /// Harped: depth at both member ends, and at and between the two harp points. From
+    /// each end to its harp point the depth varies linearly. `harp_x` is the first harp
+    /// point's distance from the left end; `harp_x2` the second's, also from the left end
+    /// (given in the input, or `length - harp_x` for the usual symmetric layer; `None`
+    /// only for a member without a length, which has no located sections).
+    Harped { depth_end: f64, depth_harp: f64, harp_x: f64, harp_x2: Option<f64>, harp_x2_given: bool },
 }
 
 impl Profile {
-    /// Depth below the top of the precast unit at a distance x from the end (`None`: at
-    /// the governing section, taken at the harp depth).
-    pub fn depth_at(&self, x: Option<f64>) -> f64 {
+    /// Depth below the top of the precast unit at a section along the member (`None`:
+    /// at the governing section, taken at the harp depth). Symmetric members give the
+    /// same depth at x and length - x.
+    pub fn depth_at(&self, at: Option<Along>) -> f64 {
         match *self {
             Profile::Straight { depth } => depth,
-            Profile::Harped { depth_end, depth_harp, harp_x } => match x {
-                Some(x) if x < harp_x => depth_end + (depth_harp - depth_end) * x / harp_x,
-                _ => depth_harp,
+            Profile::Harped { depth_end, depth_harp, harp_x, harp_x2, .. } => match at {
+                None => depth_harp,
+                Some(Along { x, length }) => {
+                    let x2 = harp_x2.unwrap_or(length - harp_x);
+                    if x < harp_x {
+                        depth_end + (depth_harp - depth_end) * x / harp_x
+                    } else if x > x2 {
+                        depth_end + (depth_harp - depth_end) * (length - x) / (length - x2)
+                    } else {
+                        depth_harp
+                    }
+                }
             },
         }
+    }
+}
+
+/// One of the two ends of a member; x is measured from the left one.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum End {
+    Left,
+    Right,
+}
+
+impl End {
+    pub fn name(self) -> &'static str {
+        match self {
+            End::Left => "left end",
+            End::Right => "right end",
+        }
+    }
+}
+
+/// A section along a member of known length: x from the left end.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Along {
+    pub x: f64,
+    pub length: f64,
+}
+
+impl Along {
+    /// The nearer end and the distance to it (the left end where both are as near).
+    /// Transfer, development and debonding are measured from here.
+    pub fn nearer_end(&self) -> (End, f64) {
+        let right = self.length - self.x;
+        if self.x <= right { (End::Left, self.x) } else { (End::Right, right) }
     }
 }
 
@@ -271,6 +317,14 @@ pub struct Member {
 }
 
 impl Member {
+    /// A location's place along the member (`None` where the location gives no x; the
+    /// input check allows x only on members with a length).
+    pub fn along(&self, loc: &Location) -> Option<Along> {
+        match (loc.x, self.length) {
+            (Some(x), Some(length)) => Some(Along { x, length }),
+            _ => None,
+        }
+    }
     /// Height of the precast unit.
     pub fn precast_height(&self) -> f64 {
         self.region.y_top() - self.region.y_bot()

@@ -176,6 +176,7 @@ pub struct Strands {
     pub height_end: Option<Q>,
     pub height_harp: Option<Q>,
     pub harp_x: Option<Q>,
+    pub harp_x2: Option<Q>,
     pub count: Option<i64>,
     pub diameter: Option<Q>,
     pub area: Option<Q>,

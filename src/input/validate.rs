@@ -986,18 +986,65 @@ fn strand_layer(
             let hp = lvl(cx, h_key, &hp)?;
             let (de, dh) = if harped == "depth_end" { (e, hp) } else { (h - e, h - hp) };
             let hx = cx.required("harp_x", s.harp_x.as_ref(), "the harp point's distance from the member end").cloned();
-            let limit = length.map_or(ranges(sys).length_max, |l| l / 2.0);
-            let hx = cx.ranged("harp_x", &hx, Dim::Length, 0.0, limit, true)?;
-            Profile::Harped { depth_end: de, depth_harp: dh, harp_x: hx }
+            match (&s.harp_x2, length) {
+                (Some(_), None) => {
+                    cx.problem(
+                        "harp_x2",
+                        "harp_x2 is given but the member has no length",
+                        Some("give the member's length (end to end), or leave harp_x2 out".to_string()),
+                    );
+                    return None;
+                }
+                (Some(_), Some(len)) => {
+                    let hx = cx.ranged("harp_x", &hx, Dim::Length, 0.0, len, true)?;
+                    let hx2 = cx.ranged("harp_x2", &s.harp_x2, Dim::Length, 0.0, len, true)?;
+                    if !(hx2 > hx && hx2 < len) {
+                        cx.problem(
+                            "harp_x2",
+                            format!(
+                                "harp_x2 = {} is not between harp_x = {} and the member's length {}",
+                                cx.shown(Dim::Length, hx2),
+                                cx.shown(Dim::Length, hx),
+                                cx.shown(Dim::Length, len)
+                            ),
+                            Some(
+                                "the second harp point's distance from the left end: harp_x < harp_x2 < length"
+                                    .to_string(),
+                            ),
+                        );
+                        return None;
+                    }
+                    Profile::Harped {
+                        depth_end: de,
+                        depth_harp: dh,
+                        harp_x: hx,
+                        harp_x2: Some(hx2),
+                        harp_x2_given: true,
+                    }
+                }
+                (None, _) => {
+                    let limit = length.map_or(ranges(sys).length_max, |l| l / 2.0);
+                    let hx = cx.ranged("harp_x", &hx, Dim::Length, 0.0, limit, true)?;
+                    Profile::Harped {
+                        depth_end: de,
+                        depth_harp: dh,
+                        harp_x: hx,
+                        harp_x2: length.map(|l| l - hx),
+                        harp_x2_given: false,
+                    }
+                }
+            }
         }
     };
-    if s.harp_x.is_some() && matches!(profile, Profile::Straight { .. }) {
-        cx.problem(
-            "harp_x",
-            "harp_x is given for a straight layer",
-            Some("harp_x only with depth_end/depth_harp or height_end/height_harp".to_string()),
-        );
-        return None;
+    for (key, given) in [("harp_x", s.harp_x.is_some()), ("harp_x2", s.harp_x2.is_some())] {
+        if given && matches!(profile, Profile::Straight { .. }) {
+            cx.problem(
+                key,
+                format!("{key} is given for a straight layer"),
+                Some(format!("{key} only with depth_end/depth_harp or height_end/height_harp")),
+            );
+            return None;
+        }
     }
     let count = cx.count("count", s.count, 1, limits::STRANDS_PER_LAYER);
     let count = cx.required("count", count, "the number of strands in the layer")?;
@@ -1509,9 +1556,32 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
                 Some("a unique name per location".to_string()),
             );
         }
-        let x = match &l.x {
-            Some(_) => cx.ranged("x", &l.x, Dim::Length, 0.0, length.unwrap_or(r.length_max), false),
-            None => None,
+        let x = match (&l.x, length) {
+            (Some(_), Some(len)) => match cx.quantity("x", &l.x, Dim::Length) {
+                Some(x) if (0.0..=len).contains(&x) => Some(x),
+                Some(x) => {
+                    cx.problem(
+                        "x",
+                        format!(
+                            "x = {} lies outside the member, whose length is {}",
+                            cx.shown(Dim::Length, x),
+                            cx.shown(Dim::Length, len)
+                        ),
+                        Some(format!("0 <= x <= {} (x from the left end)", cx.shown(Dim::Length, len))),
+                    );
+                    None
+                }
+                None => None,
+            },
+            (Some(_), None) => {
+                cx.problem(
+                    "x",
+                    "x is given but the member has no length, so x cannot be measured from its ends",
+                    Some("give the member's length (end to end) in [[member]]; x then runs from 0 at the left end to the length".to_string()),
+                );
+                None
+            }
+            (None, _) => None,
         };
         let lmu = match &l.mu {
             Some(_) => cx.ranged("mu", &l.mu, Dim::Moment, 0.0, f64::MAX, true),

@@ -330,13 +330,25 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
         .map(|(i, s)| {
             let level = match s.profile {
                 crate::input::model::Profile::Straight { depth } => format!("depth {} {}", show(depth), u.length),
-                crate::input::model::Profile::Harped { depth_end, depth_harp, harp_x } => format!(
-                    "harped: depth {} at end, {} from x = {} {}",
-                    show(depth_end),
-                    show(depth_harp),
-                    show(harp_x),
-                    u.length
-                ),
+                crate::input::model::Profile::Harped { depth_end, depth_harp, harp_x, harp_x2, harp_x2_given } => {
+                    match (harp_x2, harp_x2_given) {
+                        (Some(x2), true) => format!(
+                            "harped: depth {} at the ends, {} between x = {} and {} {}",
+                            show(depth_end),
+                            show(depth_harp),
+                            show(harp_x),
+                            show(x2),
+                            u.length
+                        ),
+                        _ => format!(
+                            "harped: depth {} at the ends, {} from {} {} from each end",
+                            show(depth_end),
+                            show(depth_harp),
+                            show(harp_x),
+                            u.length
+                        ),
+                    }
+                }
             };
             json!({
                 "index": i + 1,
