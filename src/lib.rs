@@ -25,6 +25,7 @@ pub mod trace;
 pub mod units;
 pub mod verify;
 
+pub use analysis::conclusion::Status;
 pub use error::{Error, Result};
 
 /// `check --json` of a whole package, analysed: the members are analysed (without trace)
@@ -34,41 +35,41 @@ pub use error::{Error, Result};
 pub fn check_json(pkg: &input::Package) -> Result<CheckJson> {
     use rayon::prelude::*;
     const CHUNK: usize = 16;
-    let pieces: Vec<Result<(Vec<u8>, bool)>> = pkg
+    let pieces: Vec<Result<(Vec<u8>, Status)>> = pkg
         .members
         .par_chunks(CHUNK)
         .map(|ms| {
             let mut buf = Vec::with_capacity(ms.len() * 2048);
-            let mut pass = true;
+            let mut status = Status::Pass;
             for m in ms {
                 let r = analysis::analyze_member(m, pkg.units, false)?;
-                pass &= r.pass;
+                status = status.and(r.status);
                 if !buf.is_empty() {
                     buf.push(b',');
                 }
                 present::write_member_json(&mut buf, &r);
             }
-            Ok((buf, pass))
+            Ok((buf, status))
         })
         .collect();
-    let mut out = CheckJson { pieces: Vec::with_capacity(pieces.len()), pass: true };
+    let mut out = CheckJson { pieces: Vec::with_capacity(pieces.len()), status: Status::Pass };
     for p in pieces {
-        let (b, ok) = p?;
-        out.pass &= ok;
+        let (b, st) = p?;
+        out.status = out.status.and(st);
         out.pieces.push(b);
     }
     Ok(out)
 }
 
-/// The members of `check --json`, written, and whether every check passes.
+/// The members of `check --json`, written, and the package's result.
 pub struct CheckJson {
     pieces: Vec<Vec<u8>>,
-    pub pass: bool,
+    pub status: Status,
 }
 
 impl CheckJson {
     /// Writes the whole JSON: the bytes of serialising [`present::check_json`].
     pub fn write(&self, pkg: &input::Package, w: &mut dyn std::io::Write) -> std::io::Result<()> {
-        present::write_check_json(w, pkg, self.pass, &self.pieces)
+        present::write_check_json(w, pkg, self.status, &self.pieces)
     }
 }

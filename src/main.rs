@@ -17,7 +17,9 @@ static ALLOC: mimalloc::MiMalloc = mimalloc::MiMalloc;
     version,
     about = "Flexural strength of pretensioned concrete members by strain compatibility, \
              written up as a paginated, signed-off PDF calculation package.",
-    after_help = "Exit status: 0 every check passes, 1 a check fails, 2 bad input or error."
+    after_help = "Exit status of check and report: 0 every check passes, 1 a check fails, 2 bad input or error, \
+                  3 every check passes but only on open conditions (listed by check; e.g. a waiver that rests on \
+                  a shear check not made here)."
 )]
 struct Cli {
     #[command(subcommand)]
@@ -55,7 +57,8 @@ enum Cmd {
         #[arg(long)]
         overwrite: bool,
     },
-    /// Analyse every member and print a summary (exit 1 if a check fails).
+    /// Analyse every member and print a summary (exit 0 all pass, 1 a check fails, 3 all
+    /// pass only on the open conditions listed).
     Check {
         file: PathBuf,
         /// Print JSON on stdout instead of the table.
@@ -129,8 +132,9 @@ enum Cmd {
     /// The moment-curvature response of a member (fibre analysis), as JSON or CSV.
     Curve {
         file: PathBuf,
+        /// The member (may be left out when the file has one member).
         #[arg(long)]
-        member: String,
+        member: Option<String>,
         /// Check location (default: the member's governing location).
         #[arg(long)]
         location: Option<String>,
@@ -225,25 +229,19 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
         }
         Cmd::Check { file, json } => {
             let (_, pkg) = input::load(&file)?;
-            let pass = if json {
+            let status = if json {
                 let out = strainsheet::check_json(&pkg)?;
                 write_stdout(|w| {
                     out.write(&pkg, w)?;
                     w.write_all(b"\n")
                 })?;
-                let pass = out.pass;
-                // the process ends here: leave the large results to the operating system
-                std::mem::forget(out);
-                pass
+                out.status
             } else {
                 let a = analysis::analyze(&pkg, false)?;
                 write_stdout(|w| w.write_all(present::check_table(&pkg, &a).as_bytes()))?;
-                let pass = a.pass();
-                std::mem::forget(a);
-                pass
+                a.status()
             };
-            std::mem::forget(pkg);
-            Ok(if pass { ExitCode::SUCCESS } else { ExitCode::from(1) })
+            Ok(result_code(status))
         }
         Cmd::Report { file, output, overwrite, templates } => {
             no_huge_pages();
@@ -257,7 +255,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             let (src, pkg) = input::load(&file)?;
             progress.phase(format!("analysing {} members", pkg.members.len()));
             let a = analysis::analyze_full(&pkg)?;
-            let pass = a.pass();
+            let status = a.status();
             let r = report::render_reporting(&pkg, &src, a, &templates, &|m| progress.phase(m))?;
             progress.phase("writing");
             let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
@@ -266,11 +264,9 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             side_path.push(".sha256");
             output::write_all(&[(out.clone(), r.pdf), (PathBuf::from(side_path), sidecar.into_bytes())], overwrite)?;
             progress.done();
-            for w in &pkg.warnings {
-                eprintln!("warning: {}: {}: {}", w.at, w.key, w.message);
-            }
+            print_warnings(&pkg);
             eprintln!("wrote {} ({} sheets, content SHA-256 {})", out.display(), r.pages, r.hash);
-            Ok(if pass { ExitCode::SUCCESS } else { ExitCode::from(1) })
+            Ok(result_code(status))
         }
         Cmd::Verify { file, templates, pubkey } => {
             no_huge_pages();
@@ -323,14 +319,29 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
         }
         Cmd::Curve { file, member, location, format } => {
             let (_, pkg) = input::load(&file)?;
-            let Some(mi) = pkg.members.iter().position(|m| m.id == member) else {
-                let ids: Vec<&str> = pkg.members.iter().map(|m| m.id.as_str()).collect();
+            print_warnings(&pkg);
+            let ids: Vec<&str> = pkg.members.iter().map(|m| m.id.as_str()).collect();
+            let found = match &member {
+                Some(id) => pkg.members.iter().position(|m| &m.id == id),
+                None if pkg.members.len() == 1 => Some(0),
+                None => {
+                    return Err(Error::Usage(format!(
+                        "{} has {} members: choose one with --member ({})",
+                        file.display(),
+                        ids.len(),
+                        ids.join(", ")
+                    )));
+                }
+            };
+            let Some(mi) = found else {
                 return Err(Error::Usage(format!(
-                    "no member {member:?} in {}; its members are {}",
+                    "no member {:?} in {}; its members are {}",
+                    member.unwrap_or_default(),
                     file.display(),
                     ids.join(", ")
                 )));
             };
+            let member = pkg.members[mi].id.clone();
             let m = &pkg.members[mi];
             let r = analysis::analyze_member(m, pkg.units, false)?;
             let li = match &location {
@@ -349,12 +360,13 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                     let v = present::curve_json(&pkg, &c, &r.locations[li]);
                     println!("{}", serde_json::to_string_pretty(&v).map_err(|e| Error::Usage(e.to_string()))?);
                 }
-                CurveFormat::Csv => print!("{}", present::curve_csv(&c)),
+                CurveFormat::Csv => print!("{}", present::curve_csv(&pkg, &c)),
             }
             Ok(ExitCode::SUCCESS)
         }
         Cmd::Trace { file, member, format } => {
             let (_, pkg) = input::load(&file)?;
+            print_warnings(&pkg);
             let a = analysis::analyze(&pkg, true)?;
             let chosen: Vec<_> = a.members.iter().filter(|m| member.as_ref().is_none_or(|id| &m.id == id)).collect();
             if chosen.is_empty() {
@@ -377,6 +389,23 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             }
             Ok(ExitCode::SUCCESS)
         }
+    }
+}
+
+/// The exit status of a result: 0 every check met, 1 a check not met, 3 every check
+/// met but only on open conditions (things this program does not check).
+fn result_code(status: strainsheet::Status) -> ExitCode {
+    match status {
+        strainsheet::Status::Pass => ExitCode::SUCCESS,
+        strainsheet::Status::Fail => ExitCode::from(1),
+        strainsheet::Status::Conditional => ExitCode::from(3),
+    }
+}
+
+/// The input's warnings (allowed but unusual input), on stderr.
+fn print_warnings(pkg: &input::Package) {
+    for w in &pkg.warnings {
+        eprintln!("warning: {}: {}: {}", w.at, w.key, w.message);
     }
 }
 

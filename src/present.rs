@@ -1,6 +1,7 @@
 //! Presentations of results for the terminal and for tools: the `check` table and JSON,
 //! and the `trace` listing as text, JSON or CSV.
 
+use crate::analysis::conclusion::{Condition, Status};
 use crate::analysis::{Analysis, LayerOut, LocationResult, MemberResult};
 use crate::input::Package;
 use crate::trace::{Step, Style, show};
@@ -63,6 +64,11 @@ struct LocationJson<'a> {
     rupture_risk: bool,
     #[serde(skip_serializing_if = "Option::is_none")]
     pass: Option<bool>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    status: Option<Status>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    conditions: Option<&'a [Condition]>,
+    top_fibre_prestress_alone: f64,
     conclusion: &'a str,
     strands: Vec<LayerJson>,
     bars: Vec<LayerJson>,
@@ -88,6 +94,9 @@ fn location_json(l: &LocationResult, top_level: bool) -> LocationJson<'_> {
         min_reinforcement_waived: !l.min_reinforcement.ok && l.min_reinforcement.waiver_flexure,
         rupture_risk: l.rupture_risk,
         pass: (!top_level).then_some(l.pass),
+        status: (!top_level).then_some(l.status),
+        conditions: (!top_level).then_some(l.conditions.as_slice()),
+        top_fibre_prestress_alone: l.prestress_alone.top,
         conclusion: &l.conclusion,
         strands: l.strands.iter().map(|s| layer_json(s, true)).collect(),
         bars: l.bars.iter().map(|s| layer_json(s, false)).collect(),
@@ -100,6 +109,10 @@ struct MemberJson<'a> {
     /// Name of the governing location, whose results are the member's fields.
     governing: &'a str,
     pass: bool,
+    /// "pass", "conditional" (every check met, on the open conditions listed) or "fail".
+    status: Status,
+    /// The open conditions of every location, each with the location's name.
+    conditions: Vec<NamedCondition<'a>>,
     #[serde(flatten)]
     top: LocationJson<'a>,
     locations: Vec<LocationJson<'a>>,
@@ -111,6 +124,7 @@ pub struct CheckJson<'a> {
     format: u32,
     units: crate::units::UnitNames,
     pass: bool,
+    status: Status,
     members: Vec<MemberJson<'a>>,
     warnings: &'a [crate::input::model::Warning],
 }
@@ -120,9 +134,17 @@ pub fn check_json<'a>(pkg: &'a Package, a: &'a Analysis) -> CheckJson<'a> {
         format: 1,
         units: pkg.units.names(),
         pass: a.pass(),
+        status: a.status(),
         members: a.members.iter().map(member_json).collect(),
         warnings: &pkg.warnings,
     }
+}
+
+#[derive(Serialize)]
+struct NamedCondition<'a> {
+    location: &'a str,
+    #[serde(flatten)]
+    condition: &'a Condition,
 }
 
 fn member_json(m: &MemberResult) -> MemberJson<'_> {
@@ -130,6 +152,12 @@ fn member_json(m: &MemberResult) -> MemberJson<'_> {
         id: &m.id,
         governing: &m.governing().name,
         pass: m.pass,
+        status: m.status,
+        conditions: m
+            .locations
+            .iter()
+            .flat_map(|l| l.conditions.iter().map(|c| NamedCondition { location: &l.name, condition: c }))
+            .collect(),
         top: location_json(m.governing(), true),
         locations: m.locations.iter().map(|l| location_json(l, false)).collect(),
     }
@@ -147,12 +175,14 @@ pub fn write_member_json(out: &mut Vec<u8>, m: &MemberResult) {
 pub fn write_check_json(
     w: &mut dyn std::io::Write,
     pkg: &Package,
-    pass: bool,
+    status: Status,
     pieces: &[Vec<u8>],
 ) -> std::io::Result<()> {
     w.write_all(b"{\"format\":1,\"units\":")?;
     serde_json::to_writer(&mut *w, &pkg.units.names())?;
-    w.write_all(if pass { b",\"pass\":true,\"members\":[" } else { b",\"pass\":false,\"members\":[" })?;
+    w.write_all(if status == Status::Fail { b",\"pass\":false,\"status\":" } else { b",\"pass\":true,\"status\":" })?;
+    serde_json::to_writer(&mut *w, &status)?;
+    w.write_all(b",\"members\":[")?;
     for (i, p) in pieces.iter().enumerate() {
         if i > 0 {
             w.write_all(b",")?;
@@ -184,6 +214,8 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
         "1.2 Mcr".into(),
         "result".into(),
     ]];
+    // the open conditions, numbered as the table refers to them
+    let mut open: Vec<String> = Vec::new();
     for m in &a.members {
         for l in &m.locations {
             let fps = l
@@ -196,7 +228,7 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
             let minr = if l.min_reinforcement.ok {
                 "ok"
             } else if l.min_reinforcement.waiver_flexure {
-                "waived*"
+                "waived"
             } else {
                 "NOT MET"
             };
@@ -213,9 +245,12 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
                 format!("{:.3}", l.phi),
                 show(l.phi_mn),
                 show(l.mu),
-                format!("{:.3}", l.ratio),
+                crate::trace::ratio_text(l.ratio),
                 minr.into(),
-                if l.pass { "pass".into() } else { "FAIL".into() },
+                match l.status {
+                    Status::Conditional => format!("conditional [{}]", notes_of(&mut open, m, l)),
+                    st => st.word().into(),
+                },
             ]);
         }
     }
@@ -241,24 +276,45 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
             out.push('\n');
         }
     }
-    if a.members
-        .iter()
-        .flat_map(|m| &m.locations)
-        .any(|l| !l.min_reinforcement.ok && l.min_reinforcement.waiver_flexure)
-    {
-        out.push_str("* phi Mn < 1.2 Mcr but phi Mn >= 2 Mu: the waiver applies only if shear strength is also at least twice that required (not checked).\n");
+    if !open.is_empty() {
+        out.push_str("Open conditions (the result holds only once each is settled):\n");
+        for (k, text) in open.iter().enumerate() {
+            out.push_str(&format!("  [{}] {text}\n", k + 1));
+        }
     }
     for w in &pkg.warnings {
         out.push_str(&format!("warning: {}: {}: {}\n", w.at, w.key, w.message));
     }
-    let (n, failed) =
-        a.members.iter().flat_map(|m| &m.locations).fold((0, 0), |(n, f), l| (n + 1, f + usize::from(!l.pass)));
-    if failed == 0 {
-        out.push_str(&format!("All {n} check locations of {} members pass.\n", a.members.len()));
-    } else {
+    let (mut n, mut failed, mut cond) = (0, 0, 0);
+    for l in a.members.iter().flat_map(|m| &m.locations) {
+        n += 1;
+        match l.status {
+            Status::Fail => failed += 1,
+            Status::Conditional => cond += 1,
+            Status::Pass => {}
+        }
+    }
+    if failed > 0 {
         out.push_str(&format!("{failed} of {n} check locations FAIL.\n"));
+    } else if cond > 0 {
+        out.push_str(&format!(
+            "All {n} check locations of {} members meet the checks made here, {cond} of them only on the open conditions above.\n",
+            a.members.len()
+        ));
+    } else {
+        out.push_str(&format!("All {n} check locations of {} members pass.\n", a.members.len()));
     }
     out
+}
+
+/// Adds a location's open conditions to the numbered list; their numbers, joined.
+fn notes_of(open: &mut Vec<String>, m: &MemberResult, l: &LocationResult) -> String {
+    let mut refs = Vec::new();
+    for c in &l.conditions {
+        open.push(format!("{} at {}: {}", m.id, l.name, c.text));
+        refs.push(open.len().to_string());
+    }
+    refs.join(",")
 }
 
 /// Every step of the selected members, as readable text.
@@ -380,7 +436,7 @@ pub fn curve_json(pkg: &Package, c: &crate::analysis::curve::CurveResult, l: &Lo
     json!({
         "member": c.member,
         "location": c.location,
-        "units": {"curvature": format!("1/{}", u.length), "moment": u.moment, "length": u.length},
+        "units": {"curvature": format!("1/{}", u.length), "moment": u.moment, "length": u.length, "neutral_axis": format!("{} below the top", u.length), "strain": "1 (tension positive)"},
         "points": c.points,
         "cracking_moment": c.cracking.map(|m| m.moment),
         "yield_moment": c.yielding.map(|m| m.moment),
@@ -398,9 +454,14 @@ pub fn curve_json(pkg: &Package, c: &crate::analysis::curve::CurveResult, l: &Lo
     })
 }
 
-/// `curve --format csv`: one row per point.
-pub fn curve_csv(c: &crate::analysis::curve::CurveResult) -> String {
-    let mut out = String::from("curvature,moment,top_strain,neutral_axis,strand_strain\n");
+/// `curve --format csv`: one row per point; the header names each column's unit.
+pub fn curve_csv(pkg: &Package, c: &crate::analysis::curve::CurveResult) -> String {
+    let u = pkg.units.names();
+    let mut out = format!(
+        "curvature (1/{len}),moment ({mom}),top_strain,neutral_axis ({len} below the top),strand_strain\n",
+        len = u.length,
+        mom = u.moment
+    );
     for p in &c.points {
         out.push_str(&format!(
             "{},{},{},{},{}\n",

@@ -29,8 +29,7 @@ name = "Checker name"
 [[member]]
 id = "DT-1"
 description = "Untopped double tee, 10 ft wide, 24 in deep"
-length = 720.0             # span, in (optional; locations are measured from the end)
-mu = 420.0                 # factored moment, kip-ft
+length = 720.0             # end to end, in; locations are measured from the left end
 
 [member.concrete]
 fc = 6.0                   # ksi; Ec and fr follow ACI 318-19 19.2.2.1(b) and 19.2.3.1
@@ -51,10 +50,10 @@ diameter = 0.5             # area from the ASTM A416 table
 jacking = 0.75             # fraction of fpu
 losses = 35.0              # total prestress losses, ksi (no default: give fse or losses)
 
-[[member.location]]        # check locations: name, x from the member end, mu there
+[[member.location]]        # check locations: name, x from the left end, mu there
 name = "midspan"
 x = 360.0
-mu = 420.0
+mu = 420.0                 # factored moment, kip-ft
 "#;
 
 /// A starter in SI units: one hollow-core plank.

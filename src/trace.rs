@@ -33,6 +33,8 @@ pub enum Unit {
     Curvature,
     /// A pure number (β1, φ, a ratio).
     Ratio,
+    /// A demand-to-capacity ratio, shown to three figures.
+    Demand,
     /// Per cent.
     Percent,
 }
@@ -59,7 +61,7 @@ impl Unit {
             (Unit::Curvature, Us) => "1/in",
             (Unit::Curvature, Si) => "1/mm",
             (Unit::Percent, _) => "%",
-            (Unit::Strain, _) | (Unit::Ratio, _) => "",
+            (Unit::Strain, _) | (Unit::Ratio, _) | (Unit::Demand, _) => "",
         }
     }
 }
@@ -469,6 +471,25 @@ pub fn math_number(s: &str) -> String {
 
 /// A value rounded for display: about four significant figures, never in scientific
 /// notation. Strains and curvatures are shown scaled (see [`scaled`]).
+/// A demand-to-capacity ratio as printed everywhere: three significant figures
+/// ("0.913", "1.05", "12.4").
+pub fn ratio_text(v: f64) -> String {
+    if !v.is_finite() {
+        return "—".to_string();
+    }
+    let a = v.abs();
+    let decimals = if a < 0.9995 {
+        3
+    } else if a < 9.995 {
+        2
+    } else if a < 99.95 {
+        1
+    } else {
+        0
+    };
+    fixed(v, decimals)
+}
+
 pub fn show(v: f64) -> String {
     if !v.is_finite() {
         return "—".to_string();
@@ -528,7 +549,10 @@ pub fn scale(unit: Unit) -> (f64, &'static str, &'static str) {
 
 /// A value in its shown scale ("6.123" for a strain of 0.006123).
 pub fn scaled(v: f64, unit: Unit) -> String {
-    show(v * scale(unit).0)
+    match unit {
+        Unit::Demand => ratio_text(v),
+        _ => show(v * scale(unit).0),
+    }
 }
 
 /// A value as it is substituted into a formula: strains as plain decimals.

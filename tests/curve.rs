@@ -151,8 +151,16 @@ fn curve_json_has_the_contract_keys() {
         .output()
         .unwrap();
     let text = String::from_utf8_lossy(&csv.stdout);
-    assert!(text.starts_with("curvature,moment,top_strain,neutral_axis,strand_strain\n"));
+    // each column names its unit (SI package)
+    assert!(
+        text.starts_with("curvature (1/mm),moment (kN-m),top_strain,neutral_axis (mm below the top),strand_strain\n"),
+        "{text}"
+    );
     assert_eq!(text.lines().count(), v["points"].as_array().unwrap().len() + 1);
+    // two members: --member is needed, and the message lists them
+    let two = bin().args(["curve", example("hollow-core-plank.toml").to_str().unwrap()]).output().unwrap();
+    assert_eq!(two.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&two.stderr).contains("HC-1, HC-2"));
     let bad = bin()
         .args(["curve", example("hollow-core-plank.toml").to_str().unwrap(), "--member", "NOPE"])
         .output()
@@ -200,4 +208,18 @@ fn the_curve_follows_one_branch() {
             }
         }
     }
+}
+
+/// With one member in the file, `curve` needs no --member.
+#[test]
+fn curve_of_the_only_member() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = dir.path().join("one.toml");
+    let text = std::fs::read_to_string(example("inverted-tee-girder.toml")).unwrap();
+    // keep the first member only
+    let second = text.match_indices("[[member]]").nth(1).map(|(i, _)| i).unwrap();
+    std::fs::write(&f, &text[..second]).unwrap();
+    let o = bin().args(["curve", f.to_str().unwrap(), "--format", "csv"]).output().unwrap();
+    assert_eq!(o.status.code(), Some(0), "{}", String::from_utf8_lossy(&o.stderr));
+    assert!(String::from_utf8_lossy(&o.stdout).starts_with("curvature (1/in),moment (kip-ft)"));
 }

@@ -128,7 +128,6 @@ fn cases() -> Vec<Case> {
             with("name = \"C. Hecker\"", "name = \"C. Hecker\"\ndate = 2026-11-01"),
             "prepared",
         ),
-        case("no checker", with("role = \"checked\"", "role = \"approved\""), "checked"),
         case("harped without harp point", with("depth = 21.0", "depth_end = 12.0\ndepth_harp = 21.0"), "harp_x"),
         case(
             "power formula for Grade 250",
@@ -190,6 +189,33 @@ fn cases() -> Vec<Case> {
 fn run(args: &[&str], file: &Path) -> (Option<i32>, String) {
     let out = bin().args(args).arg(file).output().unwrap();
     (out.status.code(), String::from_utf8_lossy(&out.stderr).into_owned())
+}
+
+/// A quick check needs no sign-offs: a missing "checked" sign-off is a warning, and the
+/// package it makes is a DRAFT.
+#[test]
+fn missing_signoff_warns_and_the_package_is_a_draft() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = dir.path().join("test.toml");
+    std::fs::write(&f, with("role = \"checked\"", "role = \"approved\"")).unwrap();
+    for cmd in [&["check"][..], &["trace"][..]] {
+        // check prints its warnings under the table, trace on stderr
+        let out = bin().args(cmd).arg(&f).output().unwrap();
+        let (code, err) = (
+            out.status.code(),
+            format!("{}{}", String::from_utf8_lossy(&out.stdout), String::from_utf8_lossy(&out.stderr)),
+        );
+        assert_eq!(code, Some(0), "{cmd:?}: {err}");
+        assert!(err.contains("warning") && err.contains("\"checked\"") && err.contains("DRAFT"), "{cmd:?}: {err}");
+    }
+    // every sign-off given is dated, but there is no checker: still a draft
+    let head = HEAD_US.replace("name = \"P. Reparer\"", "name = \"P. Reparer\"\ndate = 2026-11-01").replace(
+        "role = \"checked\"\nname = \"C. Hecker\"",
+        "role = \"approved\"\nname = \"C. Hecker\"\ndate = 2026-11-02",
+    );
+    let pkg = parse(&format!("{head}{}", &BASE_TEXT[BASE_TEXT.find("[[member]]").unwrap()..]));
+    assert!(pkg.meta.signoffs.iter().all(|s| s.date.is_some()));
+    assert!(pkg.meta.is_draft());
 }
 
 #[test]

@@ -128,8 +128,8 @@ fn displayed_values_equal_the_trace() {
                     );
                 }
                 let f = strainsheet::trace::show;
-                for v in [l.phi_mn, l.mu, l.ratio, l.c] {
-                    assert!(chunk.contains(&f(v)), "{ex}: {} {}: {} not on its sheets", m.id, l.name, f(v));
+                for v in [f(l.phi_mn), f(l.mu), strainsheet::trace::ratio_text(l.ratio), f(l.c)] {
+                    assert!(chunk.contains(&v), "{ex}: {} {}: {v} not on its sheets", m.id, l.name);
                 }
             }
         }
@@ -279,7 +279,7 @@ fn report_refuses_to_overwrite_and_leaves_the_old_file() {
         ])
         .output()
         .unwrap();
-    assert_eq!(st.status.code(), Some(0), "{}", String::from_utf8_lossy(&st.stderr));
+    assert!(matches!(st.status.code(), Some(0 | 3)), "{}", String::from_utf8_lossy(&st.stderr));
     assert!(std::fs::read(&out).unwrap().starts_with(b"%PDF-"));
     let side = std::fs::read_to_string(dir.path().join("pkg.pdf.sha256")).unwrap();
     assert_eq!(side, strainsheet::seal::sidecar(&std::fs::read(&out).unwrap(), "pkg.pdf"));
@@ -293,7 +293,7 @@ fn sidecar_reads_with_sha256sum() {
         .args(["report", example("hollow-core-plank.toml").to_str().unwrap(), "-o", out.to_str().unwrap()])
         .output()
         .unwrap();
-    assert!(st.status.success());
+    assert!(matches!(st.status.code(), Some(0 | 3)));
     let check = std::process::Command::new("sha256sum")
         .arg("-c")
         .arg("hc.pdf.sha256")

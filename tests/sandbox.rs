@@ -80,7 +80,7 @@ fn a_template_cannot_read_outside_its_folder() {
     );
     let out = outside.path().join("ok.pdf");
     let (code, err) = report_with(dir.path(), &out);
-    assert_eq!(code, Some(0), "{err}");
+    assert!(matches!(code, Some(0 | 3)), "{err}");
     let text = pdftotext(&std::fs::read(&out).unwrap(), None);
     assert!(text.contains("Saltmarsh Quay Residences"), "{text}");
 }

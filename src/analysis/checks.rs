@@ -338,6 +338,49 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
 
 /// Cracking moment (shown units), ACI 318-19 with the section moduli of the precast unit
 /// and, for a topped member, of the transformed composite section.
+/// The extreme fibre stresses of the precast unit under the effective prestress alone
+/// (no self-weight: the worst case for the top's tension and the bottom's compression),
+/// tension positive: the top against fr, the bottom's precompression against f'c. A
+/// screening until the stresses at release and in service are checked; where either is
+/// exceeded it is an open condition of the conclusion.
+pub(super) struct PrestressAlone {
+    pub top: f64,
+    pub bottom: f64,
+    pub top_cracks: bool,
+    pub over_compressed: bool,
+}
+
+pub(super) fn prestress_alone(p: &Prepared, li: usize, pe: f64, e: f64, tr: &mut Trace) -> PrestressAlone {
+    let cv = p.cv;
+    let pc = &p.precast;
+    let (area, st, sb) = (pc.area, pc.st(), pc.sb());
+    let c = &p.m.concrete;
+    let pe_s = pe * cv.kf;
+    let top = -pe / area + pe * e / st;
+    let bottom = -pe / area - pe * e / sb;
+    tr.rec(|| {
+        Step::new(
+            "cracking",
+            tag(li, "ft_pe"),
+            "Top fibre stress of the precast unit from the effective prestress alone",
+            sy("f_(t,\"pe\")", "ft,pe"),
+        )
+        .formula(add(vec![neg(per(div(v(0), v(1)), cv.kf)), per(div(mul(vec![v(0), v(2)]), v(3)), cv.kf)]))
+        .input(sy("P_e", "Pe"), pe_s, Unit::Force)
+        .input(sy("A", "A"), area, Unit::Area)
+        .input(sy("e", "e"), e, Unit::Length)
+        .input(sy("S_t", "St"), st, Unit::Modulus)
+        .result(top, Unit::Stress)
+        .note(format!(
+            "tension positive; no self-weight counted. {} fr = {} {}",
+            if top > c.fr { "Exceeds" } else { "Does not exceed" },
+            show(c.fr),
+            p.sys.names().stress
+        ))
+    });
+    PrestressAlone { top, bottom, top_cracks: top > c.fr, over_compressed: -bottom > c.fc }
+}
+
 pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &mut Trace) -> f64 {
     let cv = p.cv;
     let pc = &p.precast;

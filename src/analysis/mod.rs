@@ -8,6 +8,7 @@
 //! the code's approximate fps for comparison; the conclusion.
 
 pub mod checks;
+pub mod conclusion;
 pub mod curve;
 pub mod roots;
 pub mod solve;
@@ -187,6 +188,18 @@ pub struct OtherBlock {
     pub mn: f64,
 }
 
+/// The precast unit's extreme fibre stresses under the effective prestress alone
+/// (tension positive), against fr and f'c.
+#[derive(Debug, Clone, Serialize)]
+pub struct PrestressAloneOut {
+    pub top: f64,
+    pub bottom: f64,
+    pub fr: f64,
+    pub fc: f64,
+    pub top_cracks: bool,
+    pub over_compressed: bool,
+}
+
 #[derive(Debug, Clone, Serialize)]
 pub struct LocationResult {
     pub name: String,
@@ -222,9 +235,16 @@ pub struct LocationResult {
     pub approximate: Approximate,
     pub development: Vec<Development>,
     pub max_strand_strain: f64,
+    /// The largest strain of strand not fully developed here (held at fpx).
+    pub capped_strain: f64,
     pub rupture_risk: bool,
+    pub prestress_alone: PrestressAloneOut,
     pub other_block: Option<OtherBlock>,
+    /// Every check met, perhaps on open conditions (see `status`).
     pub pass: bool,
+    pub status: conclusion::Status,
+    /// Open conditions and cautions: the result holds only if they are settled.
+    pub conditions: Vec<conclusion::Condition>,
     pub conclusion: String,
     pub notes: Vec<String>,
     /// Rings of the compression block for the sketch.
@@ -240,6 +260,7 @@ pub struct MemberResult {
     /// Index of the governing location (highest Mu / phi Mn).
     pub governing: usize,
     pub pass: bool,
+    pub status: conclusion::Status,
     pub trace: Vec<Step>,
     /// The moment-curvature response at the governing location (filled by
     /// [`analyze_full`]), or why it could not be found.
@@ -262,6 +283,10 @@ pub struct Analysis {
 impl Analysis {
     pub fn pass(&self) -> bool {
         self.members.iter().all(|m| m.pass)
+    }
+    /// The package's result: the worst of its members'.
+    pub fn status(&self) -> conclusion::Status {
+        self.members.iter().fold(conclusion::Status::Pass, |s, m| s.and(m.status))
     }
 }
 
@@ -693,9 +718,21 @@ pub fn analyze_member(m: &Member, sys: System, trace: bool) -> Result<MemberResu
     for (li, loc) in m.locations.iter().enumerate() {
         locations.push(location(&p, li, loc, trace)?);
     }
+    // strand strained beyond its elongation: the section's moment-curvature curve says
+    // whether it ruptures before the demand is carried
+    for (li, l) in locations.iter_mut().enumerate() {
+        let curve = l.rupture_risk.then(|| curve::moment_curvature(m, sys, li));
+        let check = match &curve {
+            None => conclusion::RuptureCheck::NotAsked,
+            Some(Ok(c)) => conclusion::RuptureCheck::Curve(c),
+            Some(Err(e)) => conclusion::RuptureCheck::Failed(e.to_string()),
+        };
+        conclusion::settle(l, sys, check);
+    }
     let governing =
         locations.iter().enumerate().max_by(|a, b| a.1.ratio.total_cmp(&b.1.ratio)).map(|(i, _)| i).unwrap_or(0);
     let pass = locations.iter().all(|l| l.pass);
+    let status = locations.iter().fold(conclusion::Status::Pass, |s, l| s.and(l.status));
     let geometry = Geometry {
         outline: m.region.outline.clone(),
         holes: m.region.holes.clone(),
@@ -726,6 +763,7 @@ pub fn analyze_member(m: &Member, sys: System, trace: bool) -> Result<MemberResu
         locations,
         governing,
         pass,
+        status,
         trace: steps,
         curve: None,
         curve_error: None,
@@ -1103,7 +1141,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
             .formula(div(v(0), v(1)))
             .input(sy("M_u", "Mu"), mu, Unit::Moment)
             .input(sy("phi M_n", "phiMn"), phi_mn, Unit::Moment)
-            .result(ratio, Unit::Ratio)
+            .result(ratio, Unit::Demand)
             .note(if ratio <= 1.0 { "at most 1: adequate" } else { "above 1: not adequate" })
     });
     let strength_ok = ratio <= 1.0;
@@ -1124,69 +1162,16 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
     let approx =
         checks::approximate(p, li, &st, &at, loc.x.is_some() && caps.iter().any(|c| c.is_finite()), mn, &mut tr);
 
-    // strand elongation (ASTM A416 minimum elongation 3.5 %)
-    // strand whose stress is limited by its development cannot be strained to rupture
-    // there (it would slip first): only developed strand counts
+    let alone = checks::prestress_alone(p, li, pe, e, &mut tr);
+
+    // strand elongation (ASTM A416 minimum elongation): strand whose stress is limited by
+    // its development cannot be strained to rupture there (it would slip first), so only
+    // developed strand counts; the conclusion (conclusion::settle) words both
     let max_strand_strain =
         strength.strands.iter().filter(|l| l.active && l.cap.is_none()).map(|l| l.eps).fold(0.0, f64::max);
-    let rupture_risk = max_strand_strain > 0.035;
-    let min_ok = minr.ok || minr.waiver_flexure;
-    let pass = strength_ok && min_ok;
-    let at_x = match loc.x {
-        Some(x) => format!("at x = {} {} ({})", crate::trace::show(x), sys.names().length, loc.name),
-        None => format!("at the {} (strands fully developed)", loc.name),
-    };
-    let mut conclusion = if pass {
-        format!(
-            "Flexural strength adequate {at_x}: Mu = {} ≤ φMn = {} {} (ratio {}).",
-            crate::trace::show(mu),
-            crate::trace::show(phi_mn),
-            sys.names().moment,
-            crate::trace::show(ratio)
-        )
-    } else {
-        let mut why = Vec::new();
-        if !strength_ok {
-            why.push(format!(
-                "Mu = {} exceeds φMn = {} {}",
-                crate::trace::show(mu),
-                crate::trace::show(phi_mn),
-                sys.names().moment
-            ));
-        }
-        if !min_ok {
-            why.push(format!(
-                "φMn = {} is less than 1.2 Mcr = {} {} ({})",
-                crate::trace::show(phi_mn),
-                crate::trace::show(minr.required),
-                sys.names().moment,
-                minr.clause
-            ));
-        }
-        format!("Flexural strength NOT adequate {at_x}: {}.", why.join("; "))
-    };
-    if rupture_risk {
-        conclusion.push_str(&format!(
-            " Caution: the total strand strain {} % exceeds the 3.5 % minimum elongation of ASTM A416, so the strand may rupture before the concrete reaches 0.003; review the strand's elongation capacity.",
-            crate::trace::show(max_strand_strain * 100.0)
-        ));
-    }
-    // strand limited by its development slips before it ruptures: its strain is not an
-    // elongation to compare with A416, but a checker will see it in the layer table
+    let rupture_risk = max_strand_strain > conclusion::STRAND_ELONGATION;
     let capped_strain =
         strength.strands.iter().filter(|l| l.active && l.cap.is_some()).map(|l| l.eps).fold(0.0, f64::max);
-    if capped_strain > 0.035 {
-        conclusion.push_str(&format!(
-            " The strand strain of up to {} % here is that of strand not fully developed at this location: its stress is held at fpx and it would slip before it ruptures, so the strain is not compared with the 3.5 % elongation of ASTM A416.",
-            crate::trace::show(capped_strain * 100.0)
-        ));
-    }
-    if pass && !minr.ok && minr.waiver_flexure {
-        conclusion.push_str(&format!(
-            " The minimum-reinforcement requirement ({}) is waived by {} since φMn ≥ 2 Mu, provided the shear strength is also at least twice that required (shear is not checked in this package).",
-            minr.clause, minr.waiver_clause
-        ));
-    }
     // the block's outline is drawn only in the package (traced runs)
     let block_rings = if !trace {
         Vec::new()
@@ -1241,10 +1226,23 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
         approximate: approx,
         development: at.iter().filter_map(|a| a.dev.clone()).collect(),
         max_strand_strain,
+        capped_strain,
         rupture_risk,
+        prestress_alone: PrestressAloneOut {
+            top: alone.top,
+            bottom: alone.bottom,
+            fr: m.concrete.fr,
+            fc: m.concrete.fc,
+            top_cracks: alone.top_cracks,
+            over_compressed: alone.over_compressed,
+        },
         other_block,
-        pass,
-        conclusion,
+        // settled with the words by conclusion::settle, once the member's curve has
+        // answered what it can
+        pass: strength_ok,
+        status: conclusion::Status::Fail,
+        conditions: Vec::new(),
+        conclusion: String::new(),
         notes,
         block_rings,
         trace: steps,

@@ -90,9 +90,12 @@ impl Meta {
     pub fn signoff(&self, role: Role) -> Option<&Signoff> {
         self.signoffs.iter().find(|s| s.role == role)
     }
-    /// A package is issued (not a draft) when every sign-off it lists is dated.
+    /// A package is issued (not a draft) when it has the "prepared" and "checked"
+    /// sign-offs and every sign-off it lists is dated.
     pub fn is_draft(&self) -> bool {
-        self.signoffs.is_empty() || self.signoffs.iter().any(|s| s.date.is_none())
+        self.signoff(Role::Prepared).is_none()
+            || self.signoff(Role::Checked).is_none()
+            || self.signoffs.iter().any(|s| s.date.is_none())
     }
 }
 

@@ -483,14 +483,14 @@ fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
     }
     let find = |r: Role| signoffs.iter().position(|s| s.role == r);
     let at_signoff = |i: usize| vec![Seg::Key("package"), Seg::Key("signoff"), Seg::Idx(i)];
+    // a quick check needs no sign-offs; the package is then a draft (Meta::is_draft)
     for r in [Role::Prepared, Role::Checked] {
         if find(r).is_none() {
-            cx.problem(
+            cx.warn(
                 "signoff",
-                format!("no sign-off has role = {:?}", r.name()),
-                Some(
-                    "[[package.signoff]] tables for \"prepared\" and \"checked\" (\"approved\" is optional)"
-                        .to_string(),
+                format!(
+                    "no sign-off has role = {:?}: the package is a DRAFT until [[package.signoff]] tables for \"prepared\" and \"checked\" are given and dated",
+                    r.name()
                 ),
             );
         }
@@ -1620,6 +1620,22 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
         }
         cx.leave();
         cx.leave();
+    }
+    // the member's mu and mnc are the values of the locations that give none: where
+    // every location gives its own, a member value would be used nowhere
+    if !m.location.is_empty() {
+        for (key, member_given, all_own) in [
+            ("mu", m.mu.is_some(), m.location.iter().all(|l| l.mu.is_some())),
+            ("mnc", m.mnc.is_some() && m.topping.is_some(), m.location.iter().all(|l| l.mnc.is_some())),
+        ] {
+            if member_given && all_own {
+                cx.problem(
+                    key,
+                    format!("{key} is given for the member and for every [[member.location]], so the member's {key} would be used by no location"),
+                    Some(format!("the member's {key} applies to the locations that give none: remove it, or remove {key} from the locations that should take it")),
+                );
+            }
+        }
     }
     if m.location.is_empty() {
         match mu {

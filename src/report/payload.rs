@@ -182,7 +182,7 @@ fn location_view(l: &LocationResult, sys: System) -> Value {
             "phi": show(l.phi),
             "phi_mn": show(l.phi_mn),
             "mu": show(l.mu),
-            "ratio": show(l.ratio),
+            "ratio": crate::trace::ratio_text(l.ratio),
             "mcr": show(l.mcr),
             "min_required": show(l.min_reinforcement.required),
             "eps_t": scaled(l.eps_t, Unit::Strain),
@@ -510,16 +510,54 @@ pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Va
                     "x": l.x.map(show).unwrap_or_else(|| "—".into()),
                     "phi_mn": show(l.phi_mn),
                     "mu": show(l.mu),
-                    "ratio": show(l.ratio),
+                    "ratio": crate::trace::ratio_text(l.ratio),
                     "control": l.control,
                     "phi": show(l.phi),
                     "min": if l.min_reinforcement.ok { "met" } else if l.min_reinforcement.waiver_flexure { "waived (see sheet)" } else { "not met" },
                     "pass": l.pass,
-                    // adequate on a condition or with a caution the conclusion states
-                    "caution": l.pass && (l.rupture_risk || !l.min_reinforcement.ok),
+                    "status": l.status,
+                    // adequate only on the open conditions the conclusion lists
+                    "caution": l.status == crate::analysis::conclusion::Status::Conditional,
                     "governing": i == m.governing,
                 })
             })
+        })
+        .collect();
+    // every open condition of the package, for the cover
+    let open_items: Vec<Value> = a
+        .members
+        .iter()
+        .flat_map(|m| {
+            m.locations.iter().flat_map(move |l| {
+                l.conditions
+                    .iter()
+                    .map(move |c| json!({"member": m.id, "location": l.name, "kind": c.kind, "short": c.short}))
+            })
+        })
+        .collect();
+    // the same, by kind, for the cover: what each kind asks and where
+    let mut kinds: Vec<(crate::analysis::conclusion::ConditionKind, Vec<String>)> = Vec::new();
+    for m in &a.members {
+        for l in &m.locations {
+            for c in &l.conditions {
+                let at = format!("{} · {}", m.id, l.name);
+                match kinds.iter_mut().find(|(k, _)| *k == c.kind) {
+                    Some((_, list)) => list.push(at),
+                    None => kinds.push((c.kind, vec![at])),
+                }
+            }
+        }
+    }
+    let open_kinds: Vec<Value> = kinds
+        .into_iter()
+        .map(|(k, at)| {
+            const SHOWN: usize = 4;
+            let more = at.len().saturating_sub(SHOWN);
+            let mut places = at.iter().take(SHOWN).cloned().collect::<Vec<_>>().join("; ");
+            if more > 0 {
+                places.push_str(&format!("; and {more} more"));
+            }
+            json!({"title": k.title(), "count": at.len(), "places": places})
         })
         .collect();
     let members: Vec<Value> = {
@@ -566,11 +604,20 @@ pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Va
             "signoffs": signoffs,
             "draft": draft,
             "pass": a.pass(),
+            "status": a.status(),
         },
         "defaults": defaults,
         "warnings": pkg.warnings,
     });
-    with_moved(v, [("summary", Value::Array(summary)), ("members", Value::Array(members))])
+    with_moved(
+        v,
+        [
+            ("summary", Value::Array(summary)),
+            ("open_items", Value::Array(open_items)),
+            ("open_kinds", Value::Array(open_kinds)),
+            ("members", Value::Array(members)),
+        ],
+    )
 }
 
 /// What the templates read (view.json): the payload less what no sheet prints (formula
