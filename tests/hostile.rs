@@ -183,6 +183,29 @@ fn cases() -> Vec<Case> {
         case("too many members", members, "members"),
         case("syntax error", with("fc = 6.0", "fc = = 6.0"), "fc"),
         case("string where a table belongs", with("[member.concrete]\nfc = 6.0", "concrete = \"strong\""), "concrete"),
+        case("misspelt key", with("fc = 6.0", "fc = 6.0\nlambd = 1.0"), "did you mean `lambda`"),
+        case("strand height above the section", with("depth = 21.0", "height = 30.0"), "height = 30 in"),
+        case(
+            "location beyond the member",
+            with("", "[[member.location]]\nname = \"far\"\nx = 400.0\n"),
+            "whose length is 360 in",
+        ),
+        case(
+            "location without a member length",
+            with("length = 360.0\n", "").replace("mu = 120.0\n", "")
+                + "[[member.location]]\nname = \"a\"\nx = 100.0\nmu = 10.0\n",
+            "no length",
+        ),
+        case(
+            "member mu that no location uses",
+            with("", "[[member.location]]\nname = \"a\"\nx = 100.0\nmu = 10.0\n"),
+            "used by no location",
+        ),
+        case(
+            "second harp point before the first",
+            with("depth = 21.0", "depth_end = 12.0\ndepth_harp = 21.0\nharp_x = 150.0\nharp_x2 = 100.0"),
+            "harp_x2",
+        ),
     ]
 }
 
@@ -216,6 +239,27 @@ fn missing_signoff_warns_and_the_package_is_a_draft() {
     let pkg = parse(&format!("{head}{}", &BASE_TEXT[BASE_TEXT.find("[[member]]").unwrap()..]));
     assert!(pkg.meta.signoffs.iter().all(|s| s.date.is_some()));
     assert!(pkg.meta.is_draft());
+}
+
+/// Input that once met friction and is now read: bars by area alone, a harped layer
+/// placed by heights, two harp points given.
+#[test]
+fn friendly_forms_are_read() {
+    // bars by area alone: the round bar of that area, and the default says so
+    let pkg = parse(&with("", "[[member.bars]]\nheight = 2.0\ncount = 2\narea = 0.31\n"));
+    let b = &pkg.members[0].bars[0];
+    assert!((b.diameter - (4.0 * 0.31 / std::f64::consts::PI).sqrt()).abs() < 1e-12);
+    assert!(pkg.members[0].defaults.iter().any(|d| d.key == "bars.diameter"));
+    // a harped layer by heights: the same member as by depths (24 in deep)
+    let by_height = parse(&with("depth = 21.0", "height_end = 12.0\nheight_harp = 3.0\nharp_x = 120.0"));
+    let by_depth = parse(&with("depth = 21.0", "depth_end = 12.0\ndepth_harp = 21.0\nharp_x = 120.0"));
+    assert_eq!(by_height.members[0].strands[0].profile, by_depth.members[0].strands[0].profile);
+    // both harp points given, measured from the left end
+    let two = parse(&with("depth = 21.0", "depth_end = 12.0\ndepth_harp = 21.0\nharp_x = 120.0\nharp_x2 = 200.0"));
+    let prof = two.members[0].strands[0].profile;
+    let at = |x: f64| prof.depth_at(Some(strainsheet::input::model::Along { x, length: 360.0 }));
+    assert_eq!(at(160.0), 21.0);
+    assert!((at(280.0) - (12.0 + 9.0 * 80.0 / 160.0)).abs() < 1e-12);
 }
 
 #[test]

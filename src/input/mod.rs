@@ -206,7 +206,9 @@ pub fn parse(src: &Source) -> Result<Package> {
             message = format!("the file nests tables or arrays too deeply ({message})");
             Some("tables and arrays nested as in a package (a few levels)".to_string())
         } else if message.starts_with("unknown field") {
-            None // the message lists the keys allowed
+            let (m, allowed) = unknown_key(&message);
+            message = m;
+            allowed
         } else {
             Some("TOML as in the starter file that `strainsheet new` writes".to_string())
         };
@@ -248,6 +250,27 @@ pub fn parse(src: &Source) -> Result<Package> {
         })
         .collect();
     Ok(pkg)
+}
+
+/// The message for a key the schema does not know: the key, the nearest known key
+/// where one is close ("did you mean"), and the keys allowed in that table.
+fn unknown_key(message: &str) -> (String, Option<String>) {
+    let names: Vec<&str> = message.split('`').skip(1).step_by(2).collect();
+    let Some((&given, known)) = names.split_first() else {
+        return (message.to_string(), None);
+    };
+    let nearest = known
+        .iter()
+        .map(|k| (strsim::jaro_winkler(given, k), *k))
+        .filter(|(score, _)| *score >= 0.8)
+        .max_by(|a, b| a.0.total_cmp(&b.0))
+        .map(|(_, k)| k);
+    let list = known.iter().map(|k| format!("`{k}`")).collect::<Vec<_>>().join(", ");
+    match nearest {
+        Some(k) => (format!("unknown key `{given}`: did you mean `{k}`?"), Some(format!("one of {list}"))),
+        None if known.is_empty() => (format!("unknown key `{given}`: this table takes no keys"), None),
+        None => (format!("unknown key `{given}`"), Some(format!("one of {list}"))),
+    }
 }
 
 /// The bare key written at a byte offset (for messages about unknown keys).

@@ -895,16 +895,26 @@ fn check_inside(cx: &mut Ctx, key: &'static str, region: &Region, depth: f64, co
     let top = region.y_top();
     let h = top - region.y_bot();
     let len = cx.sys.names().length;
+    // the level as the user wrote it: a height from the bottom or a depth from the top
+    let by_height = key.starts_with("height");
+    let written = if by_height { h - depth } else { depth };
     if depth - d / 2.0 <= 0.0 || depth + d / 2.0 >= h {
         cx.problem(
             key,
             format!(
-                "the steel at depth {} {len} (diameter {}) is not inside the concrete, which is {} {len} deep",
-                num(depth),
+                "{key} = {} {len} puts the steel (diameter {} {len}) outside the concrete of the precast unit, which is {} {len} deep",
+                num(written),
                 num(d),
                 num(h)
             ),
-            Some(format!("a depth between {} and {} {len}", num(d / 2.0), num(h - d / 2.0))),
+            Some(format!(
+                "a {} between {} and {} {len} ({} from the {} of the precast unit)",
+                if by_height { "height" } else { "depth" },
+                num(d / 2.0),
+                num(h - d / 2.0),
+                if by_height { "height" } else { "depth" },
+                if by_height { "bottom" } else { "top" },
+            )),
         );
         return false;
     }
@@ -937,10 +947,10 @@ fn check_inside(cx: &mut Ctx, key: &'static str, region: &Region, depth: f64, co
         cx.problem(
             key,
             format!(
-                "{count} of diameter {} {len} need {} {len} of concrete width at depth {} {len}; {there}",
+                "{count} of diameter {} {len} need {} {len} of concrete width at {key} = {} {len}; {there}",
                 num(d),
                 num(count as f64 * d),
-                num(depth)
+                num(written)
             ),
             Some(allowed),
         );
@@ -1320,11 +1330,27 @@ fn bar_layer(cx: &mut Ctx, b: &raw::Bars, region: &Region, defaults: &mut Vec<De
             let a = cx.ranged("area", &a, Dim::Area, 0.0, r.dim_max, true)?;
             (None, d, a)
         }
+        (None, None) if b.area.is_some() => {
+            // area alone: the drawing and the fit check use the round bar of that area
+            let a = cx.ranged("area", &b.area, Dim::Area, 0.0, r.dim_max, true)?;
+            let d = (4.0 * a / std::f64::consts::PI).sqrt();
+            defaults.push(Default {
+                key: "bars.diameter".into(),
+                text: format!(
+                    "a bar layer given by its area alone ({} {}) is drawn and placed as the round bar of that area, diameter √(4A/π) = {} {}",
+                    num(a),
+                    sys.names().area,
+                    crate::trace::show(d),
+                    sys.names().length
+                ),
+            });
+            (None, d, a)
+        }
         (None, None) => {
             cx.problem(
                 "size",
                 "size is missing",
-                Some(format!("a bar size: {}; or diameter with area", catalog::bar_names(sys))),
+                Some(format!("a bar size: {}; diameter with area; or area alone", catalog::bar_names(sys))),
             );
             return None;
         }
