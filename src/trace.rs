@@ -153,6 +153,32 @@ pub mod f {
 }
 
 impl Expr {
+    /// The divisors of the unit conversions in the formula, in order, each once.
+    pub fn conversions(&self) -> Vec<f64> {
+        let mut out = Vec::new();
+        self.walk(&mut |e| {
+            if let Expr::Per(_, d) = e
+                && !out.contains(d)
+            {
+                out.push(*d);
+            }
+        });
+        out
+    }
+
+    fn walk(&self, f: &mut dyn FnMut(&Expr)) {
+        f(self);
+        match self {
+            Expr::Var(_) | Expr::Num(_) => {}
+            Expr::Add(xs) | Expr::Mul(xs) | Expr::Min(xs) | Expr::Max(xs) => xs.iter().for_each(|x| x.walk(f)),
+            Expr::Sub(a, b) | Expr::Div(a, b) | Expr::Pow(a, b) => {
+                a.walk(f);
+                b.walk(f);
+            }
+            Expr::Neg(a) | Expr::Sqrt(a) | Expr::Per(a, _) => a.walk(f),
+        }
+    }
+
     /// Evaluates the formula with the given input values.
     pub fn eval(&self, x: &[f64]) -> f64 {
         match self {
@@ -471,6 +497,17 @@ pub fn math_number(s: &str) -> String {
 
 /// A value rounded for display: about four significant figures, never in scientific
 /// notation. Strains and curvatures are shown scaled (see [`scaled`]).
+/// The number of decimals [`show`] prints a value with.
+pub fn decimals_shown(v: f64) -> usize {
+    let s = show(v);
+    s.find('.').map_or(0, |i| s.len() - i - 1)
+}
+
+/// A value with as many decimals as `like` is shown with (a with the digits of c).
+pub fn show_like(v: f64, like: f64) -> String {
+    if !v.is_finite() { "—".to_string() } else { fixed(v, decimals_shown(like)) }
+}
+
 /// A demand-to-capacity ratio as printed everywhere: three significant figures
 /// ("0.913", "1.05", "12.4").
 pub fn ratio_text(v: f64) -> String {
@@ -595,6 +632,10 @@ pub struct Step {
     /// Code clause, table or published source.
     pub clause: Option<String>,
     pub note: Option<String>,
+    /// Decimals the result is shown with, where it must match another value's (the
+    /// block depth a with the digits of c); otherwise about four figures.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub decimals: Option<usize>,
 }
 
 impl Step {
@@ -610,6 +651,7 @@ impl Step {
             unit: Unit::Ratio,
             clause: None,
             note: None,
+            decimals: None,
         }
     }
     pub fn formula(mut self, e: Expr) -> Step {
@@ -632,6 +674,20 @@ impl Step {
     pub fn note(mut self, n: impl Into<String>) -> Step {
         self.note = Some(n.into());
         self
+    }
+
+    /// Shows the result with as many decimals as `other` is shown with.
+    pub fn decimals_like(mut self, other: f64) -> Step {
+        self.decimals = Some(decimals_shown(other));
+        self
+    }
+
+    /// The result as printed (in its shown scale).
+    pub fn shown(&self) -> String {
+        match self.decimals {
+            Some(d) if self.value.is_finite() && scale(self.unit).0 == 1.0 => fixed(self.value, d),
+            _ => scaled(self.value, self.unit),
+        }
     }
 
     /// Re-evaluates the formula from the recorded inputs.
@@ -675,7 +731,7 @@ impl Step {
             }
         }
         let (_, tag, _) = scale(self.unit);
-        s.push_str(&scaled(self.value, self.unit));
+        s.push_str(&self.shown());
         if !tag.is_empty() {
             s.push(' ');
             s.push_str(tag);

@@ -22,7 +22,7 @@ fn with_locations(member: usize, xs: &[f64]) -> analysis::MemberResult {
 
 #[test]
 fn harped_double_tee_near_either_bearing() {
-    // DT-1: 720 in long, depressed strands harped at 288 in, straight strands below
+    // DT-1: 720 in long, strands harped at 288 in, straight strands below
     let r = with_locations(0, &[24.0, 696.0, 288.0, 432.0, 200.0, 520.0]);
     let l = &r.locations;
     for pair in l.chunks(2) {

@@ -52,7 +52,7 @@ pub(super) fn transfer(
         .input(si("f", "\"se\"", "fse", k), s.fse, Unit::Stress)
         .input(s_db(), s.diameter, Unit::Length)
         .result(ltr, Unit::Length)
-        .clause("ACI 318-19 25.4.8.1 (first term), R25.4.8.1")
+        .clause("ACI 318-19 2.3 (transfer length), 25.4.8.1 first term, R25.4.8.1")
         .note(match p.sys {
             _ if s.fse == 0.0 => "untensioned strand: no prestress to transfer",
             System::Us => "fse in ksi (fse/3000 with psi)",
@@ -214,8 +214,8 @@ pub(super) fn development(
 /// the transfer length, then linear to phi_p (the value of Table 21.2.2) at the
 /// development length, measured from where the bond begins. Only strand below the
 /// neutral axis (in tension) governs.
-pub(super) fn phi_development(li: usize, at: &mut [StrandAt], c: f64, phi_p: f64, tr: &mut Trace) -> Option<f64> {
-    let mut least: Option<f64> = None;
+pub(super) fn phi_development(li: usize, at: &mut [StrandAt], c: f64, phi_p: f64, tr: &mut Trace) -> Vec<(usize, f64)> {
+    let mut each = Vec::new();
     for (i, a) in at.iter_mut().enumerate() {
         let k = i + 1;
         if !a.active || a.d <= c {
@@ -246,9 +246,9 @@ pub(super) fn phi_development(li: usize, at: &mut [StrandAt], c: f64, phi_p: f64
                     .note("linear from 0.75 at the transfer length to φp (Table 21.2.2) at the development length")
             }
         });
-        least = Some(least.map_or(phi, |q| q.min(phi)));
+        each.push((k, phi));
     }
-    least
+    each
 }
 
 pub(super) struct Control {
@@ -259,8 +259,8 @@ pub(super) struct Control {
     pub extreme: String,
 }
 
-/// phi of ACI 318-19 Table 21.2.2 for a net tensile strain (members with ties, not
-/// spirals).
+/// phi of ACI 318-19 Table 21.2.2 for a net tensile strain (the column for transverse
+/// reinforcement "other" than spirals).
 pub fn phi_of(eps_t: f64, eps_ty: f64) -> (f64, &'static str) {
     if eps_t >= eps_ty + 0.003 {
         (0.90, "tension")
@@ -321,7 +321,7 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
     let (phi, class) = phi_of(eps_t, eps_ty);
     tr.rec(|| {
         let stp = Step::new("checks", tag(li, "phi_f"), "Strength reduction factor for flexure", sy("phi_f", "phi_f"))
-            .clause("ACI 318-19 Table 21.2.2");
+            .clause("ACI 318-19 Table 21.2.2 (transverse reinforcement: other)");
         match class {
             "transition" => stp
                 .formula(add(vec![n(0.65), mul(vec![n(0.25), div(sub(v(0), v(1)), n(0.003))])]))
@@ -553,6 +553,8 @@ pub(super) fn approximate(
         m.strands.iter().zip(at).zip(&counted).filter(|(_, k)| **k).map(|(x, _)| x).collect();
     let left_out = counted.iter().filter(|k| !**k).count();
     let ratio = layers.iter().map(|(s, _)| s.fpy / s.fpu).fold(f64::INFINITY, f64::min);
+    // the condition of 20.3.2.3.1, shown with the result
+    let fse_ratio = layers.iter().map(|(s, _)| s.fse / s.fpu).fold(f64::INFINITY, f64::min);
     let gamma_p = if ratio >= 0.9 {
         0.28
     } else if ratio >= 0.85 {
@@ -605,7 +607,8 @@ pub(super) fn approximate(
             }
             let formula = mul(vec![v(0), sub(n(1.0), mul(vec![div(v(1), v(2)), if bracket.len() == 1 { bracket.remove(0) } else { add(bracket) }]))]);
             stp.formula(formula).result(fps, Unit::Stress).note(format!(
-                "γp = {gamma_p} for fpy/fpu ≥ {}; ρp = Aps/(b dp) with b = {} and Aps = {}; compression steel not counted (ρ' = 0){}",
+                "applies: fse ≥ 0.5 fpu in every layer (least fse/fpu = {}); γp = {gamma_p} for fpy/fpu ≥ {}; ρp = Aps/(b dp) with b = {} and Aps = {}; compression steel not counted (ρ' = 0){}",
+                show(fse_ratio),
                 if gamma_p == 0.28 { "0.90" } else if gamma_p == 0.40 { "0.85" } else { "0.80" },
                 show(width),
                 show(apsw),

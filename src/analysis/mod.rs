@@ -61,12 +61,11 @@ pub struct PropsOut {
     pub cb: f64,
     pub st: f64,
     pub sb: f64,
-    pub r2: f64,
 }
 
 impl PropsOut {
     fn of(p: &Props) -> PropsOut {
-        PropsOut { area: p.area, yb: p.cb(), i: p.i, ct: p.ct(), cb: p.cb(), st: p.st(), sb: p.sb(), r2: p.r2() }
+        PropsOut { area: p.area, yb: p.cb(), i: p.i, ct: p.ct(), cb: p.cb(), st: p.st(), sb: p.sb() }
     }
 }
 
@@ -97,6 +96,9 @@ pub struct SectionResult {
     pub ec_topping: Option<f64>,
     pub beta1: f64,
     pub geometry: Geometry,
+    /// Not symmetric about a vertical axis (an L-beam): bending about a horizontal axis
+    /// with lateral restraint is assumed, and the package says so.
+    pub asymmetric: bool,
 }
 
 /// A steel layer's result at a location.
@@ -320,9 +322,35 @@ pub fn code(sys: System) -> &'static str {
     }
 }
 
+/// What a unit conversion in a formula does, in words ("/ 12: kip-in to kip-ft").
+fn conversion_words(sys: System, divisor: f64, result: Unit) -> String {
+    let same = |a: f64, b: f64| (a - b).abs() <= 1e-12 * b.abs();
+    match sys {
+        System::Us if same(divisor, 12.0) => "/ 12: kip-in to kip-ft".into(),
+        System::Us if same(divisor, 1.0 / 12.0) => "× 12: kip-ft to kip-in".into(),
+        System::Us if same(divisor, 1000.0) && result == Unit::Stress => "/ 1000: psi to ksi".into(),
+        System::Si if same(divisor, 1000.0) && result == Unit::Moment => "/ 1000: kN-mm to kN-m".into(),
+        System::Si if same(divisor, 1000.0) => "/ 1000: N to kN".into(),
+        System::Si if same(divisor, 0.001) => "× 1000: kN to N".into(),
+        System::Si if same(divisor, 1e6) => "/ 10⁶: N-mm to kN-m".into(),
+        _ => format!("/ {}: a unit conversion", crate::trace::show(divisor)),
+    }
+}
+
 /// Steps are written citing ACI 318-19; an SI package cites ACI 318M-19, the same
-/// clauses in SI units.
+/// clauses in SI units. Each unit conversion in a formula is named in the step's note.
 fn cite_for(sys: System, steps: &mut [Step]) {
+    for st in steps.iter_mut() {
+        let convs = st.formula.as_ref().map(|f| f.conversions()).unwrap_or_default();
+        if !convs.is_empty() {
+            let words: Vec<String> = convs.iter().map(|d| conversion_words(sys, *d, st.unit)).collect();
+            let words = format!("units: {}", words.join("; "));
+            st.note = Some(match st.note.take() {
+                Some(n) => format!("{n} ({words})"),
+                None => words,
+            });
+        }
+    }
     if sys == System::Si {
         for st in steps {
             if let Some(c) = &mut st.clause {
@@ -395,7 +423,7 @@ fn prepare<'a>(m: &'a Member, sys: System, tr: &mut Trace) -> Result<Prepared<'a
     tr.rec(|| {
         Step::new("section", "section.A", "Area of the precast section", sy("A", "A"))
             .result(precast.area, Unit::Area)
-            .note("exact, from the section outline (polygon with holes)")
+            .note(outline_source(m))
     });
     tr.rec(|| {
         Step::new("section", "section.yb", "Height of the centroid above the bottom", sy("y_b", "yb"))
@@ -420,14 +448,6 @@ fn prepare<'a>(m: &'a Member, sys: System, tr: &mut Trace) -> Result<Prepared<'a
             .input(sy("y_t", "yt"), precast.ct(), Unit::Length)
             .result(precast.st(), Unit::Modulus)
     });
-    tr.rec(|| {
-        Step::new("section", "section.r2", "Radius of gyration squared", sy("r^2", "r^2"))
-            .formula(div(v(0), v(1)))
-            .input(sy("I", "I"), precast.i, Unit::Inertia)
-            .input(sy("A", "A"), precast.area, Unit::Area)
-            .result(precast.r2(), Unit::Area)
-    });
-
     let (topping_region, composite, n, fc_top) = match &m.topping {
         Some(tp) => {
             record_concrete(tr, sys, "topping", &tp.concrete, "t");
@@ -487,7 +507,10 @@ fn prepare<'a>(m: &'a Member, sys: System, tr: &mut Trace) -> Result<Prepared<'a
             .clause("ACI 318-19 Table 22.2.2.4.3")
             .note(b1.note);
         if m.topping.is_some() {
-            st = st.note(format!("{}; f'c of the topping, the concrete at the compression face", b1.note));
+            st = st.clause("ACI 318-19 Table 22.2.2.4.3, 22.3.3").note(format!(
+                "{}; f'c of the topping, the concrete at the compression face (a composite member whose parts differ in f'c, 22.3.3)",
+                b1.note
+            ));
         }
         st
     });
@@ -506,6 +529,30 @@ fn prepare<'a>(m: &'a Member, sys: System, tr: &mut Trace) -> Result<Prepared<'a
         fc_top,
         curves,
     })
+}
+
+/// Whether a section is not symmetric about a vertical axis: the compression zone above
+/// some depth has its centroid off the vertical through the section's centroid.
+fn asymmetric(region: &Region) -> bool {
+    let (top, bot) = (region.y_top(), region.y_bot());
+    let xc = region.props().xc;
+    let width = region.x_max() - region.x_min();
+    [0.1, 0.3, 0.6, 0.9].iter().any(|f| {
+        let zone = region.above(top - f * (top - bot));
+        zone.area > 0.0 && (zone.qy / zone.area - xc).abs() > 1e-6 * width
+    })
+}
+
+/// Where the section's properties come from, for a checker who recomputes them.
+fn outline_source(m: &Member) -> String {
+    use crate::section::shapes::{Shape, VOID_SIDES};
+    match m.shape {
+        Shape::Polygon { .. } => "exact, from the outline and holes listed in the vertex table".to_string(),
+        Shape::HollowCore { .. } => format!(
+            "exact, from the outline built from the dimensions in the input summary; each void a {VOID_SIDES}-sided polygon of the circle's area"
+        ),
+        _ => "exact, from the outline built from the dimensions in the input summary".to_string(),
+    }
 }
 
 fn record_concrete(
@@ -754,6 +801,7 @@ pub fn analyze_member(m: &Member, sys: System, trace: bool) -> Result<MemberResu
         ec_topping: m.topping.as_ref().map(|t| t.concrete.ec),
         beta1: p.beta1,
         geometry,
+        asymmetric: asymmetric(&m.region),
     };
     let mut steps = tr.steps;
     cite_for(sys, &mut steps);
@@ -1109,18 +1157,26 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
     let mn = strength.mn_shown;
     let mu = loc.mu * cv.km;
     let ctl = checks::control(p, li, &model, &st, &mut tr);
-    let phi_dev = checks::phi_development(li, &mut at, st.c, ctl.phi, &mut tr);
+    let phi_devs = checks::phi_development(li, &mut at, st.c, ctl.phi, &mut tr);
+    let phi_dev = phi_devs.iter().map(|d| d.1).reduce(f64::min);
     let phi = match phi_dev {
         Some(pd) if pd < ctl.phi => {
             let phi_f = ctl.phi;
             tr.rec(|| {
-                Step::new("checks", tag("phi"), "Strength reduction factor", sy("phi", "phi"))
-                    .formula(min(vec![v(0), v(1)]))
-                    .input(sy("phi_f", "phi_f"), phi_f, Unit::Ratio)
-                    .input(sy("phi_\"dev\"", "phi_dev"), pd, Unit::Ratio)
-                    .result(pd, Unit::Ratio)
-                    .clause("ACI 318-19 21.2.3")
-                    .note("strand not fully developed at this section")
+                // every layer's phi_dev, so a checker sees what the least is taken of
+                let mut st = Step::new("checks", tag("phi"), "Strength reduction factor", sy("phi", "phi")).input(
+                    sy("phi_f", "phi_f"),
+                    phi_f,
+                    Unit::Ratio,
+                );
+                let mut terms = vec![v(0)];
+                for (j, (k, pdk)) in phi_devs.iter().enumerate() {
+                    st = st.input(si("phi", "\"dev\"", "phi_dev", *k), *pdk, Unit::Ratio);
+                    terms.push(v(j + 1));
+                }
+                st.formula(min(terms)).result(pd, Unit::Ratio).clause("ACI 318-19 21.2.3").note(
+                    "strand not fully developed at this section: the least of φ for flexure and each such layer's φdev",
+                )
             });
             pd
         }
@@ -1285,6 +1341,7 @@ fn record_solution(
     });
     tr.rec(|| {
         let st_ = Step::new("strength", tag("a"), "Depth of the equivalent stress block", sy("a", "a"))
+            .decimals_like(c)
             .input(sy("beta_1", "beta1"), p.beta1, Unit::Ratio)
             .input(sy("c", "c"), c, Unit::Length);
         if a < p.beta1 * c {

@@ -33,10 +33,11 @@ fn unit_name(u: Unit, sys: System) -> &'static str {
 }
 
 /// A value as Typst math: "6.123 times 10^(-3)" for a strain.
-fn shown_math(v: f64, u: Unit) -> String {
+fn shown_math(st: &Step) -> String {
+    let (v, u) = (st.value, st.unit);
     // zero needs no scale ("0", not "0 × 10⁻³")
     let (_, _, tag) = if v == 0.0 { (1.0, "", "") } else { scale(u) };
-    let s = scaled(v, u);
+    let s = minus(st.shown());
     let s = crate::trace::math_number(&s);
     if tag.is_empty() { s } else { format!("{s} times {tag}") }
 }
@@ -65,8 +66,7 @@ pub fn step_view(st: &Step, sys: System) -> Value {
     // one line, or stacked with the equals signs aligned, by the estimated width of the
     // whole line (about 88 estimated characters fit the equation column)
     let (ws, wf, wsub) = st.widths();
-    let result_w =
-        scaled(st.value, st.unit).chars().count() as f64 + unit_name(st.unit, sys).chars().count() as f64 + 6.0;
+    let result_w = st.shown().chars().count() as f64 + unit_name(st.unit, sys).chars().count() as f64 + 6.0;
     let total =
         ws + if formula.is_some() { wf + 3.0 } else { 0.0 } + if subst.is_some() { wsub + 3.0 } else { 0.0 } + result_w;
     let stack = total > 88.0;
@@ -94,8 +94,8 @@ pub fn step_view(st: &Step, sys: System) -> Value {
         "formula": formula,
         "subst": subst,
         "value": st.value,
-        "shown": scaled(st.value, st.unit),
-        "shown_math": shown_math(st.value, st.unit),
+        "shown": minus(st.shown()),
+        "shown_math": shown_math(st),
         "scale": scale(st.unit).1,
         "unit": unit_name(st.unit, sys),
         "clause": st.clause,
@@ -130,9 +130,9 @@ fn location_view(l: &LocationResult, sys: System) -> Value {
                 "k": t.k.to_string(),
                 "method": t.method,
                 "c": show(t.c),
-                "a": show(t.a),
+                "a": minus(crate::trace::show_like(t.a, t.c)),
                 // a trial at the bracket's end (c near zero) strains the steel beyond any
-                // real value: such strains are shown as beyond 1000 ‰
+                // real value: such strains are shown as beyond 1000 ×10⁻³
                 "eps": if t.eps.abs() >= 1.0 {
                     if t.eps > 0.0 { "> 1000".to_string() } else { "< −1000".to_string() }
                 } else {
@@ -177,7 +177,7 @@ fn location_view(l: &LocationResult, sys: System) -> Value {
         json!({
             "x": l.x.map(show),
             "c": show(l.c),
-            "a": show(l.a),
+            "a": minus(crate::trace::show_like(l.a, l.c)),
             "mn": show(l.mn),
             "phi": show(l.phi),
             "phi_mn": show(l.phi_mn),
@@ -314,7 +314,7 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
         );
     }
     if let Some(l) = input.length {
-        row("Span", format!("{} {}", show(l), u.length));
+        row("Length, end to end (x from the left end)", format!("{} {}", show(l), u.length));
     }
     row(
         "Member kind",
@@ -328,22 +328,28 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
         .iter()
         .enumerate()
         .map(|(i, s)| {
+            // depths from the top of the precast unit, as input; with a topping also dp
+            // from the top of the section, the datum of the steps and tables
+            let t = input.topping_thickness();
+            let d = |x: f64| {
+                if t > 0.0 { format!("{} (dp {})", show(x), show(x + t)) } else { show(x) }
+            };
             let level = match s.profile {
-                crate::input::model::Profile::Straight { depth } => format!("depth {} {}", show(depth), u.length),
+                crate::input::model::Profile::Straight { depth } => format!("depth {} {}", d(depth), u.length),
                 crate::input::model::Profile::Harped { depth_end, depth_harp, harp_x, harp_x2, harp_x2_given } => {
                     match (harp_x2, harp_x2_given) {
                         (Some(x2), true) => format!(
                             "harped: depth {} at the ends, {} between x = {} and {} {}",
-                            show(depth_end),
-                            show(depth_harp),
+                            d(depth_end),
+                            d(depth_harp),
                             show(harp_x),
                             show(x2),
                             u.length
                         ),
                         _ => format!(
                             "harped: depth {} at the ends, {} from {} {} from each end",
-                            show(depth_end),
-                            show(depth_harp),
+                            d(depth_end),
+                            d(depth_harp),
                             show(harp_x),
                             u.length
                         ),
@@ -383,6 +389,20 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
             })
         })
         .collect();
+    // a polygon's outline and holes as given (y upward), so a checker can recompute A,
+    // yb and I; a built-in shape's dimensions are in the input rows
+    let vertices: Vec<Value> = match &input.shape {
+        crate::section::shapes::Shape::Polygon { outline, holes } => std::iter::once(("outline".to_string(), outline))
+            .chain(holes.iter().enumerate().map(|(k, h)| (format!("hole {}", k + 1), h)))
+            .map(|(name, ring)| {
+                json!({
+                    "ring": name,
+                    "points": ring.iter().enumerate().map(|(k, p)| json!([(k + 1).to_string(), show(p[0]), show(p[1])])).collect::<Vec<_>>(),
+                })
+            })
+            .collect(),
+        _ => Vec::new(),
+    };
     let locations: Vec<Value> = m.locations.iter().map(|l| location_view(l, sys)).collect();
     let curve = m.curve.as_ref().map_or(Value::Null, |c| curve_view(c, &m.locations[m.governing], sys));
     let v = json!({
@@ -407,6 +427,7 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
         v,
         [
             ("input_rows", Value::Array(rows)),
+            ("vertices", Value::Array(vertices)),
             ("strands", Value::Array(strands)),
             ("bars", Value::Array(bars)),
             ("steps", steps),

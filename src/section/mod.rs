@@ -204,9 +204,6 @@ impl Props {
     pub fn sb(&self) -> f64 {
         self.i / self.cb()
     }
-    pub fn r2(&self) -> f64 {
-        self.i / self.area
-    }
 }
 
 impl Region {
