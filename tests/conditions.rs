@@ -72,3 +72,40 @@ fn strand_rupture_is_settled_by_the_curve_only_where_it_carries_the_demand() {
     assert_eq!(kinds(mid), vec![ConditionKind::StrandRupture]);
     assert_eq!(mid.status, Status::Conditional);
 }
+
+/// A section with no bonded strand and no bars (here at the member end, x = 0) is a
+/// result with zero strength and a failing conclusion, not an error.
+#[test]
+fn no_tension_steel_is_a_result_not_an_error() {
+    let text = format!(
+        "{HEAD_US}[[member]]\nid = \"A\"\nlength = 360.0\n[member.concrete]\nfc = 6.0\n[member.section]\nshape = \"rectangle\"\nwidth = 12.0\nheight = 24.0\n[[member.strands]]\ndepth = 21.0\ncount = 4\ndiameter = 0.5\nfse = 160.0\ndebonded_length = 60.0\n[[member.location]]\nname = \"end\"\nx = 0.0\nmu = 10.0\n[[member.location]]\nname = \"debonded\"\nx = 330.0\nmu = 10.0\n"
+    );
+    let pkg = parse(&text);
+    let a = analysis::analyze(&pkg, true).unwrap();
+    for l in &a.members[0].locations {
+        assert_eq!(l.phi_mn, 0.0, "{}", l.name);
+        assert!(!l.solved);
+        assert_eq!(l.status, Status::Fail);
+        assert!(l.conclusion.contains("NOT adequate"), "{}", l.conclusion);
+    }
+    // the package renders (no strain diagram to draw there)
+    let src = strainsheet::input::Source { name: "t.toml".into(), text };
+    let r = render(&pkg, &src);
+    assert!(r.pages > 3);
+}
+
+/// A non-composite moment beyond what cracks the precast unit alone makes the
+/// composite cracking-moment formula inapplicable: an open condition, never a silent
+/// "satisfied"; and an absurd one is refused at input.
+#[test]
+fn a_huge_non_composite_moment_is_refused_or_flagged() {
+    let base = std::fs::read_to_string(example("parking-double-tee.toml")).unwrap();
+    let e = parse_err(&base.replacen("mnc = 310.0", "mnc = 1e307", 1));
+    assert!(e.contains("mnc") && e.contains("1e307"), "{e}");
+    let a = analysis::analyze(&parse(&base.replacen("mnc = 310.0", "mnc = 5000.0", 1)), false).unwrap();
+    for l in &a.members[0].locations {
+        assert!(l.cracked_before_composite, "{}", l.name);
+        assert!(kinds(l).contains(&ConditionKind::CrackedBeforeComposite));
+        assert_ne!(l.status, Status::Pass);
+    }
+}

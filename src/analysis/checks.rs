@@ -77,8 +77,10 @@ pub(super) fn transfer(
             ))
         });
     }
-    let (fse_here, active, state) = if x_bond <= 0.0 {
+    let (fse_here, active, state) = if x_bond <= 0.0 && s.debonded_length > 0.0 {
         (0.0, false, "debonded at this section")
+    } else if x_bond <= 0.0 {
+        (0.0, false, "at the member end: not yet bonded")
     } else if x_bond < ltr {
         (s.fse * x_bond / ltr, true, "within the transfer length")
     } else {
@@ -381,7 +383,9 @@ pub(super) fn prestress_alone(p: &Prepared, li: usize, pe: f64, e: f64, tr: &mut
     PrestressAlone { top, bottom, top_cracks: top > c.fr, over_compressed: -bottom > c.fc }
 }
 
-pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &mut Trace) -> f64 {
+/// The cracking moment, and whether the precast unit cracks under the non-composite
+/// moment alone (before the topping acts).
+pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &mut Trace) -> (f64, bool) {
     let cv = p.cv;
     let pc = &p.precast;
     let (area, sb) = (pc.area, pc.sb());
@@ -405,6 +409,10 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
     match (&p.composite, p.m.topping.as_ref()) {
         (Some(comp), Some(_)) => {
             let sbc = comp.sb();
+            // the precast unit alone cracks under Mnc where Mnc / Sb > fr + fpe: the
+            // composite formula then does not apply (the conclusion says so)
+            let mnc_crack = sb * (fr + fpe);
+            let cracked_first = mnc > mnc_crack;
             let mnc = mnc * cv.km;
             let mcr = sbc * (fr + fpe) / cv.s_div - mnc * (sbc / sb - 1.0);
             tr.rec(|| {
@@ -423,9 +431,13 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                         "ACI 318-19 {}, 19.2.3 (PCI Design Handbook form for composite members)",
                         minimum_clause(p)
                     ))
-                    .note("Mnc: moment on the precast unit before the topping acts")
+                    .note(if cracked_first {
+                        "Mnc: moment on the precast unit before the topping acts. Mnc exceeds Sb (fr + fpe): the precast unit cracks before the topping acts, and this formula does not apply"
+                    } else {
+                        "Mnc: moment on the precast unit before the topping acts"
+                    })
             });
-            mcr
+            (mcr, cracked_first)
         }
         _ => {
             let mcr = sb * (fr + fpe) / cv.s_div;
@@ -438,7 +450,7 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .result(mcr, Unit::Moment)
                     .clause(format!("ACI 318-19 {}, 19.2.3", minimum_clause(p)))
             });
-            mcr
+            (mcr, false)
         }
     }
 }

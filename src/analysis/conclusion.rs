@@ -50,6 +50,8 @@ pub enum ConditionKind {
     TopCracksUnderPrestress,
     /// The bottom fibre's precompression beyond f'c under the prestress alone.
     Overcompressed,
+    /// The precast unit cracks under the non-composite moment before the topping acts.
+    CrackedBeforeComposite,
 }
 
 impl ConditionKind {
@@ -68,6 +70,9 @@ impl ConditionKind {
             }
             ConditionKind::Overcompressed => {
                 "the precompression under the prestress alone exceeds f'c: check the stresses at release and in service"
+            }
+            ConditionKind::CrackedBeforeComposite => {
+                "the precast unit cracks under the non-composite moment before the topping acts: the cracking moment and the minimum strength need another method"
             }
         }
     }
@@ -96,6 +101,19 @@ pub enum RuptureCheck<'a> {
 pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck) {
     let u = sys.names();
     let mut conditions = Vec::new();
+    // a conclusion is never written over a number that is not one
+    let numbers = [l.mu, l.mn, l.phi_mn, l.mcr, l.min_reinforcement.required];
+    if let Some(bad) = numbers.iter().position(|v| !v.is_finite()) {
+        let names = ["Mu", "Mn", "φMn", "Mcr", "1.2 Mcr"];
+        l.status = Status::Fail;
+        l.pass = false;
+        l.conditions = Vec::new();
+        l.conclusion = format!(
+            "No conclusion at {}: {} could not be computed as a finite number from this input. Check the input's magnitudes.",
+            l.name, names[bad]
+        );
+        return;
+    }
     let min_ok = l.min_reinforcement.ok || l.min_reinforcement.waiver_flexure;
     let pass = l.strength_ok && min_ok;
     if pass && !l.min_reinforcement.ok && l.min_reinforcement.waiver_flexure {
@@ -212,6 +230,17 @@ pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck) {
                 u.stress,
                 show(l.prestress_alone.fc),
                 u.stress
+            ),
+        });
+    }
+    if l.cracked_before_composite {
+        conditions.push(Condition {
+            kind: ConditionKind::CrackedBeforeComposite,
+            short: "the precast unit cracks under the non-composite moment: Mcr and the minimum strength to be settled otherwise".into(),
+            text: format!(
+                "The non-composite moment Mnc exceeds the moment that cracks the precast unit alone, Sb (fr + fpe): it cracks before the topping acts. The composite cracking moment shown ({} {}) and the minimum-strength check built on it do not then apply; settle both by another method, or check the non-composite moment.",
+                show(l.mcr),
+                u.moment
             ),
         });
     }

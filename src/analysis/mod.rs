@@ -233,6 +233,8 @@ pub struct LocationResult {
     pub ratio: f64,
     pub strength_ok: bool,
     pub mcr: f64,
+    /// The precast unit cracks under the non-composite moment alone.
+    pub cracked_before_composite: bool,
     pub min_reinforcement: MinReinforcement,
     pub approximate: Approximate,
     pub development: Vec<Development>,
@@ -251,6 +253,8 @@ pub struct LocationResult {
     pub notes: Vec<String>,
     /// Rings of the compression block for the sketch.
     pub block_rings: Vec<Vec<P>>,
+    /// Whether strain compatibility was solved (false where there is no tension steel).
+    pub solved: bool,
     pub trace: Vec<Step>,
 }
 
@@ -991,7 +995,14 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
                                 "inside the transfer length: prestress transferred in proportion to the bonded length",
                             )
                     }
-                    _ => st = st.result(fse_here, Unit::Stress).note("debonded here: no prestress"),
+                    _ if s.debonded_length > 0.0 => {
+                        st = st.result(fse_here, Unit::Stress).note("debonded here: no prestress")
+                    }
+                    _ => {
+                        st = st
+                            .result(fse_here, Unit::Stress)
+                            .note("at the member end: the bond has not begun, no prestress")
+                    }
                 }
                 st
             });
@@ -1077,6 +1088,12 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
                 "strain change in the concrete at the layer when the prestress is decompressed; precast section alone",
             )
         });
+    }
+
+    // a section where no strand is bonded and there are no bars (at a member end, in a
+    // debonded zone) has no tension steel: its strength is zero, a result, not an error
+    if m.bars.is_empty() && at.iter().all(|a| !a.active) {
+        return Ok(no_tension_steel(p, li, loc, &at, pe, e, tr, notes));
     }
 
     // ---- strain compatibility ----------------------------------------------------
@@ -1213,7 +1230,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
                 .note("the member's midspan value, scaled as for a uniformly loaded simple span (the location gives none)")
         });
     }
-    let mcr = checks::cracking(p, li, pe, e, loc.mnc, &mut tr);
+    let (mcr, cracked_first) = checks::cracking(p, li, pe, e, loc.mnc, &mut tr);
     let minr = checks::minimum(p, li, mcr, phi_mn, mu, &mut tr);
     let approx =
         checks::approximate(p, li, &st, &at, loc.x.is_some() && caps.iter().any(|c| c.is_finite()), mn, &mut tr);
@@ -1278,6 +1295,7 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
         ratio,
         strength_ok,
         mcr,
+        cracked_before_composite: cracked_first,
         min_reinforcement: minr,
         approximate: approx,
         development: at.iter().filter_map(|a| a.dev.clone()).collect(),
@@ -1301,8 +1319,142 @@ fn location(p: &Prepared, li: usize, loc: &crate::input::model::Location, trace:
         conclusion: String::new(),
         notes,
         block_rings,
+        solved: true,
         trace: steps,
     })
+}
+
+/// The result of a section with no tension steel: no strand bonded there and no bars.
+/// Mn = 0; the demand, the cracking moment and the minimum strength are checked as
+/// anywhere else, and the conclusion says why the strength is zero.
+#[allow(clippy::too_many_arguments)]
+fn no_tension_steel(
+    p: &Prepared,
+    li: usize,
+    loc: &crate::input::model::Location,
+    at: &[StrandAt],
+    pe: f64,
+    e: f64,
+    mut tr: Trace,
+    mut notes: Vec<String>,
+) -> LocationResult {
+    let m = p.m;
+    let cv = p.cv;
+    let tag = |k: &str| format!("L{}.{k}", li + 1);
+    let mu = loc.mu * cv.km;
+    tr.rec(|| {
+        Step::new("strength", tag("strength.Mn"), "Nominal flexural strength", sy("M_n", "Mn"))
+            .result(0.0, Unit::Moment)
+            .note("no strand is bonded at this section and there are no bars: no tension steel, no flexural strength")
+    });
+    // 21.2.3: within the transfer length (here: before the bond begins) phi is 0.75
+    let phi = 0.75;
+    let ratio = if mu == 0.0 { 0.0 } else { f64::INFINITY };
+    tr.rec(|| {
+        Step::new("checks", tag("phiMn"), "Design flexural strength", sy("phi M_n", "phiMn"))
+            .formula(mul(vec![v(0), v(1)]))
+            .input(sy("phi", "phi"), phi, Unit::Ratio)
+            .input(sy("M_n", "Mn"), 0.0, Unit::Moment)
+            .result(0.0, Unit::Moment)
+            .clause("ACI 318-19 21.2.3")
+            .note("φ = 0.75 where strand is not developed (Table 21.2.3)")
+    });
+    let (mcr, cracked_first) = checks::cracking(p, li, pe, e, loc.mnc, &mut tr);
+    let minr = checks::minimum(p, li, mcr, 0.0, mu, &mut tr);
+    let alone = checks::prestress_alone(p, li, pe, e, &mut tr);
+    notes.push("No strand is bonded at this section (it lies before the bond begins: at the member end or in a debonded zone) and the member has no bars, so the section has no flexural strength.".into());
+    let strands = m
+        .strands
+        .iter()
+        .enumerate()
+        .map(|(i, s)| LayerOut {
+            kind: "strand",
+            index: i + 1,
+            label: strand_label(s, p.sys),
+            count: s.count,
+            unit_area: s.area,
+            area: s.total_area(),
+            depth: at[i].d,
+            eps1: Some(at[i].eps1),
+            eps2: Some(at[i].eps2),
+            eps3: 0.0,
+            eps: 0.0,
+            stress: 0.0,
+            force: 0.0,
+            fse: Some(at[i].fse),
+            cap: None,
+            in_block: 0.0,
+            active: false,
+            points: if tr.on() { layer_points(&m.region, p.top - at[i].d, s.count, s.diameter) } else { Vec::new() },
+            diameter: s.diameter,
+        })
+        .collect();
+    let mut steps = tr.steps;
+    cite_for(p.sys, &mut steps);
+    LocationResult {
+        name: loc.name.clone(),
+        x: loc.x,
+        mu,
+        pe: pe * cv.kf,
+        e,
+        c: 0.0,
+        a: 0.0,
+        beta1: p.beta1,
+        block: m.topping.as_ref().map(|t| t.block),
+        zone: "none",
+        cc: 0.0,
+        dc: 0.0,
+        strands,
+        bars: Vec::new(),
+        iterations: Vec::new(),
+        closure: 0.0,
+        mn: 0.0,
+        eps_t: 0.0,
+        eps_ty: 0.002,
+        extreme: "none".into(),
+        control: "none",
+        phi,
+        phi_flexure: phi,
+        phi_development: Some(phi),
+        phi_mn: 0.0,
+        ratio,
+        strength_ok: mu == 0.0,
+        mcr,
+        cracked_before_composite: cracked_first,
+        min_reinforcement: minr,
+        approximate: Approximate {
+            applicable: false,
+            reason: Some("no strand is bonded at this section".into()),
+            gamma_p: None,
+            rho_p: None,
+            fps: None,
+            a: None,
+            flanged: false,
+            mn: None,
+            difference: None,
+        },
+        development: at.iter().filter_map(|a| a.dev.clone()).collect(),
+        max_strand_strain: 0.0,
+        capped_strain: 0.0,
+        rupture_risk: false,
+        prestress_alone: PrestressAloneOut {
+            top: alone.top,
+            bottom: alone.bottom,
+            fr: m.concrete.fr,
+            fc: m.concrete.fc,
+            top_cracks: alone.top_cracks,
+            over_compressed: alone.over_compressed,
+        },
+        other_block: None,
+        pass: mu == 0.0,
+        status: conclusion::Status::Fail,
+        conditions: Vec::new(),
+        conclusion: String::new(),
+        notes,
+        block_rings: Vec::new(),
+        solved: false,
+        trace: steps,
+    }
 }
 
 /// Mn in coherent units from a solved state: sum of T_i (d_i - d_C).

@@ -51,6 +51,9 @@ struct Ranges {
     fy: (f64, f64),
     es: (f64, f64),
     length_max: f64,
+    /// The largest moment accepted (far beyond any real member: a bound that keeps the
+    /// arithmetic finite).
+    moment_max: f64,
 }
 
 fn ranges(sys: System) -> Ranges {
@@ -64,6 +67,7 @@ fn ranges(sys: System) -> Ranges {
             fy: (40.0, 100.0),
             es: (25_000.0, 32_000.0),
             length_max: 2400.0,
+            moment_max: 1.2e7, // kip-in: 1e6 kip-ft
         },
         System::Si => Ranges {
             fc: (17.0, 100.0),
@@ -74,6 +78,7 @@ fn ranges(sys: System) -> Ranges {
             fy: (280.0, 690.0),
             es: (170_000.0, 220_000.0),
             length_max: 60_000.0,
+            moment_max: 1.5e15, // N-mm: 1.5e6 kN-m
         },
     }
 }
@@ -85,6 +90,9 @@ fn num(v: f64) -> String {
     }
     if v.is_infinite() {
         return if v > 0.0 { "inf".into() } else { "-inf".into() };
+    }
+    if v != 0.0 && !(1e-6..1e9).contains(&v.abs()) {
+        return format!("{v:e}");
     }
     let s = crate::trace::fixed(v, 6);
     let s = s.trim_end_matches('0').trim_end_matches('.');
@@ -1544,12 +1552,12 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
 
     // moments
     let mu = match &m.mu {
-        Some(_) => Some(cx.ranged("mu", &m.mu, Dim::Moment, 0.0, f64::MAX, true)?),
+        Some(_) => Some(cx.ranged("mu", &m.mu, Dim::Moment, 0.0, r.moment_max, true)?),
         None => None,
     };
     let mnc = match &m.mnc {
         Some(_) => {
-            let v = cx.ranged("mnc", &m.mnc, Dim::Moment, 0.0, f64::MAX, false)?;
+            let v = cx.ranged("mnc", &m.mnc, Dim::Moment, 0.0, r.moment_max, false)?;
             if m.topping.is_none() {
                 cx.warn("mnc", "mnc is used only for members with a topping; it is ignored here");
             }
@@ -1610,7 +1618,7 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
             (None, _) => None,
         };
         let lmu = match &l.mu {
-            Some(_) => cx.ranged("mu", &l.mu, Dim::Moment, 0.0, f64::MAX, true),
+            Some(_) => cx.ranged("mu", &l.mu, Dim::Moment, 0.0, r.moment_max, true),
             None => {
                 if mu.is_none() {
                     cx.problem(
@@ -1627,7 +1635,7 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
         }
         let mnc_scaled = l.mnc.is_none() && length.is_some() && x.is_some() && m.topping.is_some();
         let lmnc = match &l.mnc {
-            Some(_) => cx.ranged("mnc", &l.mnc, Dim::Moment, 0.0, f64::MAX, false),
+            Some(_) => cx.ranged("mnc", &l.mnc, Dim::Moment, 0.0, r.moment_max, false),
             None => match (length, x) {
                 (Some(len), Some(x)) if m.topping.is_some() => {
                     if mnc > 0.0 {
