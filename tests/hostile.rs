@@ -183,6 +183,26 @@ fn cases() -> Vec<Case> {
         case("too many members", members, "members"),
         case("syntax error", with("fc = 6.0", "fc = = 6.0"), "fc"),
         case("string where a table belongs", with("[member.concrete]\nfc = 6.0", "concrete = \"strong\""), "concrete"),
+        // d below the pitch, but the drawn 64-gons reach beyond the circle: they overlap
+        case(
+            "hollow-core voids touching as drawn",
+            hc.replace("void_diameter = 8.0", "void_diameter = 11.995"),
+            "between two voids",
+        ),
+        case(
+            "hollow-core void too near the top",
+            hc.replace("void_center_height = 12.0", "void_center_height = 19.7"),
+            "above the voids",
+        ),
+        case("text the fonts cannot draw", with("id = \"R-1\"", "id = \"R-1\"\ndescription = \"梁 ก 🏗\""), "U+6881"),
+        case("a comment the fonts cannot draw", with("fc = 6.0", "fc = 6.0 # 强度"), "comment"),
+        case(
+            "bidirectional override",
+            with("id = \"R-1\"", "id = \"R-1\"\ndescription = \"abc \u202E fed\""),
+            "U+202E",
+        ),
+        case("a word too long to wrap", with("id = \"R-1\"", &format!("id = \"R-1\"\ndescription = \"{}\"", "w".repeat(40))), "without a space"),
+        case("an id too long for its cells", with("id = \"R-1\"", "id = \"R-1-second-floor-east\""), "at most 16"),
         case("misspelt key", with("fc = 6.0", "fc = 6.0\nlambd = 1.0"), "did you mean `lambda`"),
         case("strand height above the section", with("depth = 21.0", "height = 30.0"), "height = 30 in"),
         case(

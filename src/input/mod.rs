@@ -235,6 +235,31 @@ pub fn parse(src: &Source) -> Result<Package> {
         return Err(Error::Input(ds));
     }
     let mut pkg = pkg.ok_or_else(|| Error::Usage("the package could not be read".into()))?;
+    // the values are checked above; the appendix also prints the comments verbatim
+    if let Some((at, c)) =
+        src.text.char_indices().find(|(_, c)| !crate::fonts::drawable(*c) || crate::fonts::reorders(*c))
+    {
+        let line_end = src.text[at..].find('\n').map_or(src.text.len(), |k| at + k);
+        let line = &src.text[src.text[..at].rfind('\n').map_or(0, |k| k + 1)..line_end];
+        let message = if crate::fonts::reorders(c) {
+            format!(
+                "a comment holds the bidirectional control character U+{:04X}, which would reorder the input as the appendix prints it",
+                c as u32
+            )
+        } else {
+            format!(
+                "a comment holds characters the package's fonts cannot draw: {} (the appendix prints the input verbatim)",
+                validate::undrawable(line)
+            )
+        };
+        return Err(Error::Input(vec![diagnostic(
+            src,
+            Some(at..at + c.len_utf8()),
+            String::new(),
+            message,
+            Some("comments in Latin, Greek or Cyrillic letters, digits and the usual symbols".into()),
+        )]));
+    }
     pkg.warnings = cx
         .warnings
         .iter()

@@ -8,7 +8,7 @@ use super::schema::{self as raw, Q};
 use crate::material::catalog;
 use crate::material::concrete::{self, Curve as ConcreteCurve};
 use crate::material::strand::{Curve as StrandCurve, Grade, Model};
-use crate::section::shapes::{Shape, ShapeError};
+use crate::section::shapes::{Shape, ShapeError, VOID_SIDES};
 use crate::section::{self, P, Region};
 use crate::units::{Dim, QuantityError, System};
 
@@ -39,6 +39,25 @@ pub struct Ctx {
     path: Vec<Seg>,
     pub problems: Vec<Problem>,
     pub warnings: Vec<(Vec<Seg>, String)>,
+}
+
+/// The longest run of characters without a space or hyphen that user text may hold.
+pub const WORD_MAX: usize = 24;
+
+/// The characters of `t` the bundled fonts cannot draw, each once, as "'c' (U+XXXX)"
+/// (the first five).
+pub fn undrawable(t: &str) -> String {
+    let mut seen: Vec<char> = Vec::new();
+    for c in t.chars().filter(|c| !crate::fonts::drawable(*c)) {
+        if !seen.contains(&c) {
+            seen.push(c);
+        }
+    }
+    let mut out: Vec<String> = seen.iter().take(5).map(|c| format!("'{c}' (U+{:04X})", *c as u32)).collect();
+    if seen.len() > 5 {
+        out.push(format!("and {} more", seen.len() - 5));
+    }
+    out.join(", ")
 }
 
 /// Ranges in the package's units.
@@ -251,6 +270,35 @@ impl Ctx {
             );
             return None;
         }
+        if let Some(c) = t.chars().find(|c| crate::fonts::reorders(*c)) {
+            self.problem(
+                key,
+                format!(
+                    "{key} holds the bidirectional control character U+{:04X}, which would reorder what the sheet shows",
+                    c as u32
+                ),
+                Some("text without bidirectional controls (U+200E, U+200F, U+202A to U+202E, U+2066 to U+2069)".to_string()),
+            );
+            return None;
+        }
+        let missing = undrawable(t);
+        if !missing.is_empty() {
+            self.problem(
+                key,
+                format!("{key} holds characters the package's fonts cannot draw: {missing}"),
+                Some("Latin, Greek or Cyrillic letters, digits and the usual symbols".to_string()),
+            );
+            return None;
+        }
+        // a run without a place to break would run off its cell on the sheet
+        if let Some(w) = t.split(|c: char| c.is_whitespace() || c == '-').find(|w| w.chars().count() > WORD_MAX) {
+            self.problem(
+                key,
+                format!("{key} holds a run of {} characters without a space or hyphen", w.chars().count()),
+                Some(format!("words of at most {WORD_MAX} characters, so the sheet can wrap the text")),
+            );
+            return None;
+        }
         Some(t.clone())
     }
 
@@ -374,13 +422,13 @@ pub fn package(cx: &mut Ctx, f: &raw::File) -> Option<Package> {
 }
 
 fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
-    let title = cx.text("title", &p.title, limits::SHORT_TEXT);
+    let title = cx.text("title", &p.title, 80);
     let title = cx.required("title", title, "the package title, e.g. \"Flexural strength of pretensioned members\"");
-    let project = cx.text("project", &p.project, limits::SHORT_TEXT);
+    let project = cx.text("project", &p.project, 60);
     let project = cx.required("project", project, "the project name");
-    let project_number = cx.text("project_number", &p.project_number, limits::SHORT_TEXT).unwrap_or_default();
-    let client = cx.text("client", &p.client, limits::SHORT_TEXT).unwrap_or_default();
-    let subject = cx.text("subject", &p.subject, limits::SHORT_TEXT).unwrap_or_default();
+    let project_number = cx.text("project_number", &p.project_number, 30).unwrap_or_default();
+    let client = cx.text("client", &p.client, 60).unwrap_or_default();
+    let subject = cx.text("subject", &p.subject, 100).unwrap_or_default();
     let revision = cx.text("revision", &p.revision, 20);
     let revision = cx.required("revision", revision, "the revision of this issue, e.g. \"0\" or \"A\"");
     let date = cx.date("date", &p.date);
@@ -471,10 +519,10 @@ fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
                 None
             }
         };
-        let name = cx.text("name", &s.name, limits::SHORT_TEXT);
+        let name = cx.text("name", &s.name, 60);
         let name = cx.required("name", name, "the name of the person signing");
-        let license = cx.text("license", &s.license, limits::SHORT_TEXT);
-        let firm = cx.text("firm", &s.firm, limits::SHORT_TEXT);
+        let license = cx.text("license", &s.license, 40);
+        let firm = cx.text("firm", &s.firm, 80);
         let date = cx.date("date", &s.date);
         if let (Some(role), Some(name)) = (role, name) {
             if signoffs.iter().any(|x| x.role == role) {
@@ -778,16 +826,60 @@ fn shape(cx: &mut Ctx, s: &raw::Section) -> Option<Shape> {
                 },
             }
         }
-        "hollow_core" => Shape::HollowCore {
-            width: cx.dim_len("width", &s.width)?,
-            height: cx.dim_len("height", &s.height)?,
-            void_count: cx.count("void_count", s.void_count, 1, 40)?,
-            void_diameter: cx.dim_len("void_diameter", &s.void_diameter)?,
-            void_center_height: cx.dim_len("void_center_height", &s.void_center_height)?,
-        },
+        "hollow_core" => {
+            let sh = Shape::HollowCore {
+                width: cx.dim_len("width", &s.width)?,
+                height: cx.dim_len("height", &s.height)?,
+                void_count: cx.count("void_count", s.void_count, 1, 40)?,
+                void_diameter: cx.dim_len("void_diameter", &s.void_diameter)?,
+                void_center_height: cx.dim_len("void_center_height", &s.void_center_height)?,
+            };
+            hollow_core_fits(cx, &sh)?;
+            sh
+        }
         _ => polygon(cx, s)?,
     };
     Some(shape)
+}
+
+/// The voids of a hollow-core plank as drawn (polygons of [`VOID_SIDES`] sides with the
+/// circle's area, whose corners reach a little beyond the circle) leave a plausible web
+/// between voids and concrete above and below them: at least 0.75 in (19 mm), and the
+/// edge webs (half a web, as the voids are spaced evenly) at least 0.375 in (9.5 mm).
+fn hollow_core_fits(cx: &mut Ctx, sh: &Shape) -> Option<()> {
+    let Shape::HollowCore { width, height, void_count, void_diameter: d, void_center_height: yc } = *sh else {
+        return Some(());
+    };
+    let min = match cx.sys {
+        System::Us => 0.75,
+        System::Si => 19.0,
+    };
+    let t = std::f64::consts::TAU / VOID_SIDES as f64;
+    let r = d / 2.0 * (t / t.sin()).sqrt();
+    let pitch = width / void_count as f64;
+    let len = cx.sys.names().length;
+    let checks = [
+        ("void_diameter", d, pitch - 2.0 * r, min, "the web between two voids"),
+        ("void_diameter", d, pitch / 2.0 - r, min / 2.0, "the web at each edge of the plank"),
+        ("void_center_height", yc, height - yc - r, min, "the concrete above the voids"),
+        ("void_center_height", yc, yc - r, min, "the concrete below the voids"),
+    ];
+    for (key, value, left, need, what) in checks {
+        if left < need {
+            cx.problem(
+                key,
+                format!(
+                    "{key} = {} {len} leaves {what} {} {len} thick as drawn (each void a {VOID_SIDES}-sided polygon of the circle's area, reaching {} {len} from its centre)",
+                    num(value),
+                    crate::trace::show(left),
+                    crate::trace::show(r)
+                ),
+                Some(format!("voids that leave at least {} {len} there", num(need))),
+            );
+            return None;
+        }
+    }
+    Some(())
 }
 
 const SHAPES: &str =
@@ -1395,7 +1487,7 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     let sys = cx.sys;
     let r = ranges(sys);
     let mut defaults = Vec::new();
-    let id = cx.text("id", &m.id, 60);
+    let id = cx.text("id", &m.id, 16);
     let id = cx.required("id", id, "a short unique name for the member, e.g. \"DT-1\"");
     if let Some(id) = &id
         && id.trim().is_empty()
@@ -1582,7 +1674,7 @@ fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     for (k, l) in m.location.iter().enumerate() {
         cx.enter(Seg::Key("location"));
         cx.enter(Seg::Idx(k));
-        let name = cx.text("name", &l.name, 60).unwrap_or_else(|| format!("location {}", k + 1));
+        let name = cx.text("name", &l.name, 40).unwrap_or_else(|| format!("location {}", k + 1));
         if locations.iter().any(|x: &Location| x.name == name) {
             cx.problem(
                 "name",
