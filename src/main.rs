@@ -248,6 +248,11 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
         Cmd::Report { file, output, overwrite, templates } => {
             no_huge_pages();
             let out = output.unwrap_or_else(|| file.with_extension("pdf"));
+            let mut side_path = out.clone().into_os_string();
+            side_path.push(".sha256");
+            let side_path = PathBuf::from(side_path);
+            // refuse what could not be written before the work of making it
+            output::preflight(&[&out, &side_path], overwrite)?;
             let templates = match templates {
                 Some(dir) => report::Templates::from_dir(&dir)?,
                 None => report::Templates::builtin(),
@@ -262,9 +267,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             progress.phase("writing");
             let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
             let sidecar = seal::sidecar(&r.pdf, &name);
-            let mut side_path = out.clone().into_os_string();
-            side_path.push(".sha256");
-            output::write_all(&[(out.clone(), r.pdf), (PathBuf::from(side_path), sidecar.into_bytes())], overwrite)?;
+            output::write_all(&[(out.clone(), r.pdf), (side_path, sidecar.into_bytes())], overwrite)?;
             progress.done();
             for w in &pkg.warnings {
                 eprintln!("warning: {}: {}: {}", w.at, w.key, w.message);
