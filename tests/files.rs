@@ -1,5 +1,7 @@
 //! Files on disk: only regular files are replaced; any legal output name is written and
-//! a name too long is said to be; SIGTERM and SIGHUP clean up as Ctrl-C does.
+//! a name too long is said to be; SIGTERM and SIGHUP clean up as Ctrl-C does; a
+//! template folder's entries are never followed through a link, even one swapped in
+//! while the folder is read.
 
 mod common;
 use common::*;
@@ -136,4 +138,63 @@ fn termination_signals_clean_up_like_an_interrupt() {
         assert!(err.contains("interrupted: nothing was written"), "{name}\n{err}");
         assert_eq!(names_in(dir.path()), ["big.toml"], "{name}");
     }
+}
+
+/// A template folder whose entry is swapped again and again between a regular file and
+/// a link to a file outside it, while the folder is read over and over: the file outside
+/// is never read (a link is refused, or the regular file is read).
+#[cfg(target_os = "linux")]
+#[test]
+fn a_template_swapped_for_a_link_is_never_followed() {
+    let root = tempfile::tempdir().unwrap();
+    let tdir = root.path().join("t");
+    let stage = root.path().join("stage");
+    std::fs::create_dir(&tdir).unwrap();
+    std::fs::create_dir(&stage).unwrap();
+    for (n, text) in [("package.typ", "p"), ("members.typ", "m"), ("stamps.typ", "s")] {
+        std::fs::write(tdir.join(n), text).unwrap();
+    }
+    let secret = root.path().join("secret.txt");
+    std::fs::write(&secret, "SECRET OUTSIDE THE FOLDER").unwrap();
+    let entry = tdir.join("x.typ");
+    std::fs::write(&entry, "regular").unwrap();
+    let stop = std::sync::Arc::new(std::sync::atomic::AtomicBool::new(false));
+    let swapper = {
+        let (stop, stage, entry, secret) = (stop.clone(), stage.clone(), entry.clone(), secret.clone());
+        std::thread::spawn(move || {
+            let (l, r) = (stage.join("l"), stage.join("r"));
+            while !stop.load(std::sync::atomic::Ordering::Relaxed) {
+                let _ = std::os::unix::fs::symlink(&secret, &l);
+                let _ = std::fs::rename(&l, &entry);
+                let _ = std::fs::write(&r, "regular");
+                let _ = std::fs::rename(&r, &entry);
+            }
+        })
+    };
+    // what the folder reads as with x.typ the regular file
+    let reference = root.path().join("reference");
+    std::fs::create_dir(&reference).unwrap();
+    for n in ["package.typ", "members.typ", "stamps.typ"] {
+        std::fs::copy(tdir.join(n), reference.join(n)).unwrap();
+    }
+    std::fs::write(reference.join("x.typ"), "regular").unwrap();
+    let want = strainsheet::report::Templates::from_dir(&reference).unwrap().provenance();
+    let (mut read, mut refused) = (0, 0);
+    let started = std::time::Instant::now();
+    while started.elapsed() < std::time::Duration::from_secs(3) {
+        match strainsheet::report::Templates::from_dir(&tdir) {
+            Ok(t) => {
+                assert_eq!(t.provenance(), want, "a file was read through a link (after {read} reads)");
+                read += 1;
+            }
+            Err(e) => {
+                let e = e.to_string();
+                assert!(e.contains("link"), "{e}");
+                refused += 1;
+            }
+        }
+    }
+    stop.store(true, std::sync::atomic::Ordering::Relaxed);
+    swapper.join().unwrap();
+    assert!(read + refused > 100, "only {read} reads and {refused} refusals");
 }
