@@ -17,7 +17,9 @@ static ALLOC: mimalloc::MiMalloc = mimalloc::MiMalloc;
     version,
     about = "Flexural strength of pretensioned concrete members by strain compatibility, \
              written up as a paginated, signed-off PDF calculation package.",
-    after_help = "Exit status: 0 every check passes, 1 a check fails, 2 bad input or error."
+    after_help = "Exit status: 0 every check passes (verify: intact), 1 a check fails (verify: changed), 2 bad input \
+                  or error, 3 (verify only) not verified: made by another version, its pages not compared. Two \
+                  hashes: the content hash (payload), on the cover, and the file hash (PDF), in OUT.pdf.sha256."
 )]
 struct Cli {
     #[command(subcommand)]
@@ -62,7 +64,8 @@ enum Cmd {
         #[arg(long)]
         json: bool,
     },
-    /// Write the calculation package (PDF/A-3b) and its SHA-256 sidecar.
+    /// Write the calculation package (PDF/A-3b) and its sidecar OUT.pdf.sha256, which holds
+    /// the file hash (PDF) for `sha256sum -c`; the cover shows the content hash (payload).
     Report {
         file: PathBuf,
         /// Output file (default: the input's name with .pdf).
@@ -77,9 +80,11 @@ enum Cmd {
         #[arg(long, value_name = "DIR")]
         templates: Option<PathBuf>,
     },
-    /// Prove a package unchanged: hash, re-analysis, byte-identical re-render, sidecar
-    /// and (with --pubkey) the file signature. Exit 0 intact, 1 changed, 2 not a
-    /// package or unreadable, 3 made by a different version.
+    /// Prove a package unchanged: content hash (payload), re-analysis, byte-identical
+    /// re-render, the sidecar's file hash (PDF), (with --pubkey) the file signature and
+    /// (with --expect) a hash recorded at issue. Exit 0 intact, 1 changed, 2 not a
+    /// package or unreadable, 3 NOT VERIFIED: made by another version, so its pages were
+    /// not compared (--expect with the file hash proves such a file).
     Verify {
         file: PathBuf,
         /// The template folder the package was made with (if not the built-in one).
@@ -88,6 +93,11 @@ enum Cmd {
         /// Also check FILE.sig against this public key.
         #[arg(long, value_name = "KEY.pub")]
         pubkey: Option<PathBuf>,
+        /// A hash recorded at issue: the file hash (PDF, as in the .sha256 sidecar) or the
+        /// content hash (payload, as on the cover); any difference fails (exit 1). The file
+        /// hash proves a package of any version.
+        #[arg(long, value_name = "HASH")]
+        expect: Option<String>,
     },
     /// Write an Ed25519 key pair for signing packages: KEY (private, mode 0600) and
     /// KEY.pub. A file signature proves who issued a file; it is not a professional seal
@@ -103,9 +113,10 @@ enum Cmd {
         #[arg(long)]
         license: String,
     },
-    /// Sign a package file: writes FILE.sig (signer, license, date, SHA-256, signature).
-    /// It complements, never replaces, the sign-off block inside the package, and is not
-    /// a professional seal under a licensing board's digital-signature rules.
+    /// Sign a package file: writes FILE.sig (signer, license, date, file hash (PDF),
+    /// signature). A DRAFT (a sign-off undated) is refused unless --draft is given. It
+    /// complements, never replaces, the sign-off block inside the package, and is not a
+    /// professional seal under a licensing board's digital-signature rules.
     Sign {
         file: PathBuf,
         /// The private key written by `keygen`.
@@ -117,6 +128,10 @@ enum Cmd {
         /// Replace an existing FILE.sig.
         #[arg(long)]
         overwrite: bool,
+        /// Sign a DRAFT package (not every sign-off dated); the signature records that it
+        /// is of a draft.
+        #[arg(long)]
+        draft: bool,
     },
     /// Compare two packages: inputs changed, members added or removed, key results.
     Diff {
@@ -267,18 +282,32 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             progress.phase("writing");
             let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
             let sidecar = seal::sidecar(&r.pdf, &name);
-            output::write_all(&[(out.clone(), r.pdf), (side_path, sidecar.into_bytes())], overwrite)?;
+            let file_hash = seal::sha256_hex(&r.pdf);
+            output::write_all(&[(out.clone(), r.pdf), (side_path.clone(), sidecar.into_bytes())], overwrite)?;
             progress.done();
             for w in &pkg.warnings {
                 eprintln!("warning: {}: {}: {}", w.at, w.key, w.message);
             }
-            eprintln!("wrote {} ({} sheets, content SHA-256 {})", out.display(), r.pages, r.hash);
+            eprintln!(
+                "wrote {} ({} sheets)\n  content hash (payload, on the cover): {}\n  file hash (PDF, in {}): {}",
+                out.display(),
+                r.pages,
+                r.hash,
+                side_path.display(),
+                file_hash
+            );
             Ok(if pass { ExitCode::SUCCESS } else { ExitCode::from(1) })
         }
-        Cmd::Verify { file, templates, pubkey } => {
+        Cmd::Verify { file, templates, pubkey, expect } => {
             no_huge_pages();
-            let r =
-                verify::verify(&file, &verify::Options { templates: templates.as_deref(), pubkey: pubkey.as_deref() })?;
+            let r = verify::verify(
+                &file,
+                &verify::Options {
+                    templates: templates.as_deref(),
+                    pubkey: pubkey.as_deref(),
+                    expect: expect.as_deref(),
+                },
+            )?;
             println!("verify {}", file.display());
             for c in &r.checks {
                 let tag = match c.ok {
@@ -288,16 +317,8 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 };
                 println!("  [{tag}] {}: {}", c.name, c.detail);
             }
-            let code = r.exit_code();
-            println!(
-                "{}",
-                match code {
-                    0 => "intact: the package is exactly what was issued".to_string(),
-                    1 => "CHANGED: the package is not what was issued (see the failed checks)".to_string(),
-                    _ => format!("made by version {}; checks 1 and 2 were run", r.other_version.unwrap_or_default()),
-                }
-            );
-            Ok(ExitCode::from(code))
+            println!("{}", r.verdict());
+            Ok(ExitCode::from(r.exit_code()))
         }
         Cmd::Keygen { output, name, license } => {
             let public = sign::keygen(&output, &name, &license)?;
@@ -308,9 +329,15 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             );
             Ok(ExitCode::SUCCESS)
         }
-        Cmd::Sign { file, key, date, overwrite } => {
-            let out = sign::sign(&file, &key, date.as_deref(), overwrite)?;
-            eprintln!("wrote {}", out.display());
+        Cmd::Sign { file, key, date, overwrite, draft } => {
+            let signed = sign::sign(&file, &key, date.as_deref(), overwrite, draft)?;
+            if signed.draft {
+                eprintln!(
+                    "warning: {} is a DRAFT (not every sign-off is dated); the signature records that it is of a draft",
+                    file.display()
+                );
+            }
+            eprintln!("wrote {} (its sha256 line is the file hash (PDF))", signed.path.display());
             Ok(ExitCode::SUCCESS)
         }
         Cmd::Diff { old, new, json } => {
