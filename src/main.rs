@@ -133,7 +133,10 @@ enum Cmd {
         #[arg(long)]
         draft: bool,
     },
-    /// Compare two packages: inputs changed, members added or removed, key results.
+    /// Compare two packages, two TOML inputs (analysed here, as check does) or one of
+    /// each: inputs changed (in the package's units), members and locations added or
+    /// removed (matched by id and name), and the changed results of each location (phi
+    /// Mn, Mu/phi Mn, Mcr, 1.2 Mcr, phi, status...).
     Diff {
         old: PathBuf,
         new: PathBuf,
@@ -341,9 +344,9 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             Ok(ExitCode::SUCCESS)
         }
         Cmd::Diff { old, new, json } => {
-            let a = verify::open(&old)?;
-            let b = verify::open(&new)?;
-            let d = diff::diff(&a.payload_json, &b.payload_json);
+            let a = diff::load(&old)?;
+            let b = diff::load(&new)?;
+            let d = diff::compare(&a, &b);
             if json {
                 println!("{}", serde_json::to_string_pretty(&d).map_err(|e| Error::Usage(e.to_string()))?);
             } else {

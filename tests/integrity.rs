@@ -546,35 +546,132 @@ fn signatures_prove_the_signer_and_the_file() {
     assert!(msg.contains("another key"), "{msg}");
 }
 
-#[test]
-fn diff_reports_inputs_and_results() {
-    let a = issue("parking-double-tee.toml");
+fn diff_out(args: &[&Path], json: bool) -> (i32, String) {
+    let mut cmd = bin();
+    cmd.arg("diff").args(args);
+    if json {
+        cmd.arg("--json");
+    }
+    let out = cmd.output().unwrap();
+    (
+        out.status.code().unwrap_or(-1),
+        format!("{}{}", String::from_utf8_lossy(&out.stdout), String::from_utf8_lossy(&out.stderr)),
+    )
+}
+
+/// An example with the check locations of its first member in reverse order, the
+/// midspan's moment and the first layer's losses changed.
+fn edited_double_tee(mu_from: &str, mu_to: &str) -> String {
     let src = std::fs::read_to_string(example("parking-double-tee.toml")).unwrap();
-    let changed = src.replacen("losses = 38.0", "losses = 45.0", 1);
+    let first = src.find("[[member.location]]").unwrap();
+    let end = src[first..].find("[[member]]").unwrap() + first;
+    let mut locs: Vec<String> = src[first..end]
+        .split("[[member.location]]")
+        .skip(1)
+        .map(|l| format!("[[member.location]]{}", l.trim_end()))
+        .collect();
+    locs.reverse();
+    let block = format!("{}\n\n", locs.join("\n\n"));
+    assert!(locs[0].contains("\"midspan\"") && locs[0].contains(mu_from), "{}", locs[0]);
+    let block = block.replacen(mu_from, mu_to, 1);
+    format!("{}{}{}", &src[..first], block, &src[end..]).replacen("losses = 38.0", "losses = 45.0", 1)
+}
+
+/// diff speaks the package's units, matches locations by name (not by their place),
+/// shows the changed results of each location, and takes TOML inputs as well as
+/// packages.
+#[test]
+fn diff_reports_inputs_and_results_in_the_package_units() {
+    let a = issue("parking-double-tee.toml");
     let dir = tempfile::tempdir().unwrap();
     let t = dir.path().join("b.toml");
-    std::fs::write(&t, changed).unwrap();
+    // the midspan moment, 800 kip-ft, to 860 kip-ft given in kip-in
+    std::fs::write(&t, edited_double_tee("mu = 800.0", "mu = \"10320 kip-in\"")).unwrap();
     let bpdf = dir.path().join("b.pdf");
-    assert!(
-        bin()
-            .args(["report", t.to_str().unwrap(), "-o", bpdf.to_str().unwrap()])
-            .output()
-            .unwrap()
-            .status
-            .code()
-            .is_some()
-    );
-    let out = bin().args(["diff", a.pdf.to_str().unwrap(), bpdf.to_str().unwrap(), "--json"]).output().unwrap();
-    assert!(out.status.success());
-    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
-    assert_eq!(v["input_changed"], true);
-    let dt1 = v["members"].as_array().unwrap().iter().find(|m| m["id"] == "DT-1").unwrap();
-    let keys: Vec<&str> =
-        dt1["inputs_changed"].as_array().unwrap().iter().map(|c| c["key"].as_str().unwrap()).collect();
-    assert!(keys.contains(&"strands[1].fse_source.losses"), "{keys:?}");
-    let table = bin().args(["diff", a.pdf.to_str().unwrap(), bpdf.to_str().unwrap()]).output().unwrap();
-    let t = String::from_utf8_lossy(&table.stdout);
-    assert!(t.contains("member DT-1") && t.contains("phi_mn"), "{t}");
+    let o = bin().args(["report", t.to_str().unwrap(), "-o", bpdf.to_str().unwrap()]).output().unwrap();
+    assert!(o.status.code().is_some_and(|c| c <= 1), "{}", String::from_utf8_lossy(&o.stderr));
+    for (what, old, new) in [
+        ("two packages", a.pdf.clone(), bpdf.clone()),
+        ("a package and an input", a.pdf.clone(), t.clone()),
+        ("two inputs", example("parking-double-tee.toml"), t.clone()),
+    ] {
+        let (code, out) = diff_out(&[&old, &new], true);
+        assert_eq!(code, 0, "{what}: {out}");
+        let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+        assert_eq!(v["input_changed"], true, "{what}");
+        let dt1 = v["members"].as_array().unwrap().iter().find(|m| m["id"] == "DT-1").unwrap();
+        let inputs = dt1["inputs_changed"].as_array().unwrap();
+        let keys: Vec<&str> = inputs.iter().map(|c| c["key"].as_str().unwrap()).collect();
+        // only what changed: the reordered locations are matched by name
+        assert_eq!(keys, ["locations[\"midspan\"].mu", "strands[1].fse", "strands[1].fse_source.losses"], "{what}");
+        assert_eq!((inputs[0]["before"].as_f64(), inputs[0]["after"].as_f64()), (Some(800.0), Some(860.0)), "{what}");
+        assert_eq!(inputs[0]["unit"], "kip-ft", "{what}");
+        assert_eq!(inputs[2]["unit"], "ksi", "{what}");
+        let (_, table) = diff_out(&[&old, &new], false);
+        assert!(table.contains("input locations[\"midspan\"].mu: 800 kip-ft -> 860 kip-ft"), "{what}\n{table}");
+        assert!(table.contains("input strands[1].fse_source.losses: 38 ksi -> 45 ksi"), "{what}\n{table}");
+        assert!(!table.contains("9600") && !table.contains("10320"), "{what}: a moment in kip-in\n{table}");
+        // the midspan's results, each named, in its unit
+        let mid = table.split("location \"midspan\"").nth(1).unwrap_or_default();
+        for label in ["phi Mn ", "Mu/phi Mn ", "Mcr ", "1.2 Mcr ", "status ", "Mu "] {
+            assert!(mid.contains(&format!("    {label}")), "{what}: no {label}\n{table}");
+        }
+        assert!(mid.contains("Mu         800.0 kip-ft -> 860.0 kip-ft  (+7.50 %)"), "{what}\n{table}");
+        assert!(mid.contains("status     pass -> FAIL"), "{what}\n{table}");
+        // a member whose inputs and results did not change is not listed
+        assert!(!table.contains("member DT-2"), "{what}\n{table}");
+    }
+    // the hashes are labelled; an input has none
+    let (_, table) = diff_out(&[&a.pdf, &t], false);
+    assert!(table.contains("content hash (payload): ") && table.contains("file hash (PDF): "), "{table}");
+    assert!(table.contains("-> — (a TOML input)"), "{table}");
+    // a package and the input it was made from: nothing differs
+    let (code, table) = diff_out(&[&example("parking-double-tee.toml"), &a.pdf], false);
+    assert_eq!(code, 0, "{table}");
+    assert!(table.contains("no input or result differs"), "{table}");
+    // neither a package nor an input
+    let junk = dir.path().join("notes.txt");
+    std::fs::write(&junk, "hello").unwrap();
+    let (code, out) = diff_out(&[&junk, &t], false);
+    assert_eq!(code, 2, "{out}");
+    assert!(out.contains("notes.txt") && out.contains("TOML inputs"), "{out}");
+}
+
+/// SI packages: moments in kN-m; members matched by id when reordered, added or removed;
+/// defaults by their key.
+#[test]
+fn diff_matches_members_and_defaults_by_their_names() {
+    let dir = tempfile::tempdir().unwrap();
+    let src = std::fs::read_to_string(example("hollow-core-plank.toml")).unwrap();
+    let first = src.find("[[member]]").unwrap();
+    let members: Vec<&str> = src[first..].split("[[member]]").skip(1).collect();
+    assert!(members.len() >= 2);
+    // the members in reverse order, the (now first) last one with a given lambda, and
+    // its midspan moment from 235 to 250 kN-m
+    let mut rev: Vec<String> = members.iter().rev().map(|m| format!("[[member]]{m}")).collect();
+    rev[0] = rev[0].replacen("mu = 235.0", "mu = 250.0", 1).replacen("fc = 45.0", "fc = 45.0\nlambda = 0.85", 1);
+    let edited = format!("{}{}", &src[..first], rev.join(""));
+    assert_ne!(edited, src);
+    let t = dir.path().join("si.toml");
+    std::fs::write(&t, &edited).unwrap();
+    let (code, out) = diff_out(&[&example("hollow-core-plank.toml"), &t], true);
+    assert_eq!(code, 0, "{out}");
+    let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(v["members_added"].as_array().unwrap().len(), 0, "{out}");
+    let ms = v["members"].as_array().unwrap();
+    let first_id = members[0].split("id = \"").nth(1).unwrap().split('"').next().unwrap();
+    let moved = ms.iter().find(|m| m["id"] == first_id).unwrap();
+    assert!(moved["inputs_changed"].as_array().unwrap().is_empty(), "a reordered member compared by place: {out}");
+    let (_, table) = diff_out(&[&example("hollow-core-plank.toml"), &t], false);
+    assert!(table.contains("kN-m") && !table.contains("N-mm") && !table.contains("kip"), "{table}");
+    assert!(table.contains(".mu: 235 kN-m -> 250 kN-m"), "{table}");
+    assert!(table.contains("input concrete.lambda: 1 -> 0.85"), "{table}");
+    assert!(table.contains("input defaults[\"concrete.lambda\"] removed"), "{table}");
+    // a member removed and one added
+    let renamed = edited.replacen(&format!("id = \"{first_id}\""), "id = \"HC-9\"", 1);
+    std::fs::write(&t, renamed).unwrap();
+    let (_, table) = diff_out(&[&example("hollow-core-plank.toml"), &t], false);
+    assert!(table.contains(&format!("members added: HC-9; removed: {first_id}")), "{table}");
 }
 
 /// Keys and a signed package for the signature tests: (package, its folder, key, public key).
