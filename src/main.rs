@@ -18,8 +18,8 @@ static ALLOC: mimalloc::MiMalloc = mimalloc::MiMalloc;
     about = "Flexural strength of pretensioned concrete members by strain compatibility, \
              written up as a paginated, signed-off PDF calculation package.",
     after_help = "Exit status: 0 every check passes (verify: intact), 1 a check fails (verify: changed), 2 bad input \
-                  or error, 3 (verify only) not verified: made by another version, its pages not compared. Two \
-                  hashes: the content hash (payload), on the cover, and the file hash (PDF), in OUT.pdf.sha256."
+                  or error, 3 (verify only) NOT VERIFIED: its pages could not be compared (made by another \
+                  version, or its template folder not given). Two hashes: the content hash (payload), on the cover, and the file hash (PDF), in OUT.pdf.sha256."
 )]
 struct Cli {
     #[command(subcommand)]
@@ -82,9 +82,11 @@ enum Cmd {
     },
     /// Prove a package unchanged: content hash (payload), re-analysis, byte-identical
     /// re-render, the sidecar's file hash (PDF), (with --pubkey) the file signature and
-    /// (with --expect) a hash recorded at issue. Exit 0 intact, 1 changed, 2 not a
-    /// package or unreadable, 3 NOT VERIFIED: made by another version, so its pages were
-    /// not compared (--expect with the file hash proves such a file).
+    /// (with --expect) a hash recorded at issue. Exit 0 intact, 1 changed (or the
+    /// signature or the expected hash fails), 2 not a package or unreadable, 3 NOT
+    /// VERIFIED: its pages could not be compared with its content (made by another
+    /// version, or its template folder not given); --expect with the file hash proves
+    /// such a file.
     Verify {
         file: PathBuf,
         /// The template folder the package was made with (if not the built-in one).

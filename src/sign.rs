@@ -354,7 +354,8 @@ pub fn check(sig_path: &Path, pubkey: &Path, file: &[u8]) -> std::result::Result
     let have = sha256_hex(file);
     if have != sf.sha256 {
         return Err(format!(
-            "the signature is for a file with SHA-256 {}; this file hashes to {have}: the file changed after it was signed",
+            "the signature is for a file with the file hash (PDF) {}; this file hashes to {have}: the file changed after \
+             it was signed",
             sf.sha256
         ));
     }

@@ -772,3 +772,14 @@ fn a_signature_file_is_exactly_its_format() {
     std::fs::write(&sig, &good).unwrap();
     assert_eq!(verify(&i.pdf, &["--pubkey", pubkey.to_str().unwrap()]).0, 0);
 }
+
+/// Exit status 3 reads as "not verified" in the help, as in verify's closing line.
+#[test]
+fn exit_3_reads_not_verified_in_the_help() {
+    for args in [vec!["--help"], vec!["verify", "--help"]] {
+        let out = bin().args(&args).output().unwrap();
+        let text = String::from_utf8_lossy(&out.stdout);
+        assert!(text.contains("3 NOT VERIFIED") || text.contains("3 (verify only) NOT VERIFIED"), "{args:?}\n{text}");
+        assert!(text.contains("content hash (payload)") && text.contains("file hash (PDF)"), "{args:?}\n{text}");
+    }
+}
