@@ -60,7 +60,11 @@ pub fn read_regular(path: &Path, limit: u64, what: &str) -> Result<Vec<u8>> {
             return Err(not_regular(path, what, kind_of(&m.file_type())));
         }
     }
-    let file = opts.open(path).map_err(|e| Error::io(path, open_error(&e, what)))?;
+    let file = opts.open(path).map_err(|e| match std::fs::metadata(path) {
+        // a socket cannot be opened at all: say what it is
+        Ok(m) if !m.is_file() => not_regular(path, what, kind_of(&m.file_type())),
+        _ => Error::io(path, open_error(&e, what)),
+    })?;
     let meta = file.metadata().map_err(|e| Error::io(path, e))?;
     if !meta.is_file() {
         return Err(not_regular(path, what, kind_of(&meta.file_type())));

@@ -435,6 +435,13 @@ fn integrity_commands_refuse_pipes_and_devices_at_once() {
     if got != Some(0) || !out.contains("[--  ] sidecar") || !out.contains("named pipe") {
         failures.push(format!("sidecar a pipe: exit {got:?}\n{out}"));
     }
+    // a socket where the package should be
+    let sock = dir.path().join("sock.pdf");
+    let _listener = std::os::unix::net::UnixListener::bind(&sock).unwrap();
+    let (got, out) = run_within(&[os("verify"), sock.as_os_str()], 60);
+    if got != Some(2) || !out.contains("sock.pdf") || !out.contains("a socket") {
+        failures.push(format!("a socket: exit {got:?}\n{out}"));
+    }
     assert!(failures.is_empty(), "{}", failures.join("\n\n"));
 }
 
