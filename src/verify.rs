@@ -259,9 +259,12 @@ pub fn parse_hash(text: &str) -> Option<String> {
 
 /// A sidecar line as `sha256sum` writes it: the hash, two spaces (or a space and `*`)
 /// and the file name; a name holding a backslash or a line end is escaped and the line
-/// begins with a backslash. Returns the hash (lowercase) and the name.
+/// begins with a backslash; the line end may be CR LF. Returns the hash (lowercase) and
+/// the name.
 pub fn parse_sidecar(text: &str) -> std::result::Result<(String, String), String> {
-    let body = text.strip_suffix('\n').ok_or("it does not end with one line end")?;
+    // a sidecar is not signed: one saved with a CR LF line end is read as well
+    let body =
+        text.strip_suffix("\r\n").or_else(|| text.strip_suffix('\n')).ok_or("it does not end with one line end")?;
     if body.contains('\n') {
         return Err("it holds more than one line; a sidecar holds one".into());
     }

@@ -204,6 +204,11 @@ fn a_sidecar_of_another_file_is_named_as_such() {
     let (code, out) = verify(&i.pdf, &[]);
     assert_eq!(code, 0, "{out}");
     assert!(out.contains("belongs to another file: it names \"other.pdf\""), "{out}");
+    // its own sidecar, saved with a CR LF line end
+    std::fs::write(&side, own.replace('\n', "\r\n")).unwrap();
+    let (code, out) = verify(&i.pdf, &[]);
+    assert_eq!(code, 0, "{out}");
+    assert!(out.contains("[ok  ] sidecar file hash (PDF)") && !out.contains("renamed"), "{out}");
     // its own sidecar beside a renamed copy: the hash matches, the name is noted
     let copy = i.pdf.with_file_name("renamed.pdf");
     std::fs::copy(&i.pdf, &copy).unwrap();
