@@ -12,6 +12,7 @@
 pub mod analysis;
 pub mod diff;
 pub mod error;
+pub mod files;
 pub mod fonts;
 pub mod input;
 pub mod material;

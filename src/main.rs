@@ -17,9 +17,11 @@ static ALLOC: mimalloc::MiMalloc = mimalloc::MiMalloc;
     version,
     about = "Flexural strength of pretensioned concrete members by strain compatibility, \
              written up as a paginated, signed-off PDF calculation package.",
-    after_help = "Exit status of check and report: 0 every check passes, 1 a check fails, 2 bad input or error, \
-                  3 every check passes but only on open conditions (listed by check; e.g. a waiver that rests on \
-                  a shear check not made here)."
+    after_help = "Exit status: 0 every check passes (verify: intact), 1 a check fails (verify: changed), 2 bad input \
+                  or error, 3 check and report: every check passes but only on open conditions (listed by check, \
+                  e.g. a waiver that rests on a shear check not made here); verify: NOT VERIFIED, its pages could \
+                  not be compared (made by another version, or its template folder not given). Two hashes: the \
+                  content hash (payload), on the cover, and the file hash (PDF), in OUT.pdf.sha256."
 )]
 struct Cli {
     #[command(subcommand)]
@@ -65,7 +67,8 @@ enum Cmd {
         #[arg(long)]
         json: bool,
     },
-    /// Write the calculation package (PDF/A-3b) and its SHA-256 sidecar.
+    /// Write the calculation package (PDF/A-3b) and its sidecar OUT.pdf.sha256, which holds
+    /// the file hash (PDF) for `sha256sum -c`; the cover shows the content hash (payload).
     Report {
         file: PathBuf,
         /// Output file (default: the input's name with .pdf).
@@ -80,9 +83,13 @@ enum Cmd {
         #[arg(long, value_name = "DIR")]
         templates: Option<PathBuf>,
     },
-    /// Prove a package unchanged: hash, re-analysis, byte-identical re-render, sidecar
-    /// and (with --pubkey) the file signature. Exit 0 intact, 1 changed, 2 not a
-    /// package or unreadable, 3 made by a different version.
+    /// Prove a package unchanged: content hash (payload), re-analysis, byte-identical
+    /// re-render, the sidecar's file hash (PDF), (with --pubkey) the file signature and
+    /// (with --expect) a hash recorded at issue. Exit 0 intact, 1 changed (or the
+    /// signature or the expected hash fails), 2 not a package or unreadable, 3 NOT
+    /// VERIFIED: its pages could not be compared with its content (made by another
+    /// version, or its template folder not given); --expect with the file hash proves
+    /// such a file.
     Verify {
         file: PathBuf,
         /// The template folder the package was made with (if not the built-in one).
@@ -91,6 +98,11 @@ enum Cmd {
         /// Also check FILE.sig against this public key.
         #[arg(long, value_name = "KEY.pub")]
         pubkey: Option<PathBuf>,
+        /// A hash recorded at issue: the file hash (PDF, as in the .sha256 sidecar) or the
+        /// content hash (payload, as on the cover); any difference fails (exit 1). The file
+        /// hash proves a package of any version.
+        #[arg(long, value_name = "HASH")]
+        expect: Option<String>,
     },
     /// Write an Ed25519 key pair for signing packages: KEY (private, mode 0600) and
     /// KEY.pub. A file signature proves who issued a file; it is not a professional seal
@@ -106,9 +118,10 @@ enum Cmd {
         #[arg(long)]
         license: String,
     },
-    /// Sign a package file: writes FILE.sig (signer, license, date, SHA-256, signature).
-    /// It complements, never replaces, the sign-off block inside the package, and is not
-    /// a professional seal under a licensing board's digital-signature rules.
+    /// Sign a package file: writes FILE.sig (signer, license, date, file hash (PDF),
+    /// signature). A DRAFT (a sign-off undated) is refused unless --draft is given. It
+    /// complements, never replaces, the sign-off block inside the package, and is not a
+    /// professional seal under a licensing board's digital-signature rules.
     Sign {
         file: PathBuf,
         /// The private key written by `keygen`.
@@ -120,8 +133,15 @@ enum Cmd {
         /// Replace an existing FILE.sig.
         #[arg(long)]
         overwrite: bool,
+        /// Sign a DRAFT package (not every sign-off dated); the signature records that it
+        /// is of a draft.
+        #[arg(long)]
+        draft: bool,
     },
-    /// Compare two packages: inputs changed, members added or removed, key results.
+    /// Compare two packages, two TOML inputs (analysed here, as check does) or one of
+    /// each: inputs changed (in the package's units), members and locations added or
+    /// removed (matched by id and name), and the changed results of each location (phi
+    /// Mn, Mu/phi Mn, Mcr, 1.2 Mcr, phi, status...).
     Diff {
         old: PathBuf,
         new: PathBuf,
@@ -246,6 +266,11 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
         Cmd::Report { file, output, overwrite, templates } => {
             no_huge_pages();
             let out = output.unwrap_or_else(|| file.with_extension("pdf"));
+            let mut side_path = out.clone().into_os_string();
+            side_path.push(".sha256");
+            let side_path = PathBuf::from(side_path);
+            // refuse what could not be written before the work of making it
+            output::preflight(&[&out, &side_path], overwrite)?;
             let templates = match templates {
                 Some(dir) => report::Templates::from_dir(&dir)?,
                 None => report::Templates::builtin(),
@@ -260,18 +285,30 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             progress.phase("writing");
             let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
             let sidecar = seal::sidecar(&r.pdf, &name);
-            let mut side_path = out.clone().into_os_string();
-            side_path.push(".sha256");
-            output::write_all(&[(out.clone(), r.pdf), (PathBuf::from(side_path), sidecar.into_bytes())], overwrite)?;
+            let file_hash = seal::sha256_hex(&r.pdf);
+            output::write_all(&[(out.clone(), r.pdf), (side_path.clone(), sidecar.into_bytes())], overwrite)?;
             progress.done();
             print_warnings(&pkg);
-            eprintln!("wrote {} ({} sheets, content SHA-256 {})", out.display(), r.pages, r.hash);
+            eprintln!(
+                "wrote {} ({} sheets)\n  content hash (payload, on the cover): {}\n  file hash (PDF, in {}): {}",
+                out.display(),
+                r.pages,
+                r.hash,
+                side_path.display(),
+                file_hash
+            );
             Ok(result_code(status))
         }
-        Cmd::Verify { file, templates, pubkey } => {
+        Cmd::Verify { file, templates, pubkey, expect } => {
             no_huge_pages();
-            let r =
-                verify::verify(&file, &verify::Options { templates: templates.as_deref(), pubkey: pubkey.as_deref() })?;
+            let r = verify::verify(
+                &file,
+                &verify::Options {
+                    templates: templates.as_deref(),
+                    pubkey: pubkey.as_deref(),
+                    expect: expect.as_deref(),
+                },
+            )?;
             println!("verify {}", file.display());
             for c in &r.checks {
                 let tag = match c.ok {
@@ -281,16 +318,8 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 };
                 println!("  [{tag}] {}: {}", c.name, c.detail);
             }
-            let code = r.exit_code();
-            println!(
-                "{}",
-                match code {
-                    0 => "intact: the package is exactly what was issued".to_string(),
-                    1 => "CHANGED: the package is not what was issued (see the failed checks)".to_string(),
-                    _ => format!("made by version {}; checks 1 and 2 were run", r.other_version.unwrap_or_default()),
-                }
-            );
-            Ok(ExitCode::from(code))
+            println!("{}", r.verdict());
+            Ok(ExitCode::from(r.exit_code()))
         }
         Cmd::Keygen { output, name, license } => {
             let public = sign::keygen(&output, &name, &license)?;
@@ -301,15 +330,21 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             );
             Ok(ExitCode::SUCCESS)
         }
-        Cmd::Sign { file, key, date, overwrite } => {
-            let out = sign::sign(&file, &key, date.as_deref(), overwrite)?;
-            eprintln!("wrote {}", out.display());
+        Cmd::Sign { file, key, date, overwrite, draft } => {
+            let signed = sign::sign(&file, &key, date.as_deref(), overwrite, draft)?;
+            if signed.draft {
+                eprintln!(
+                    "warning: {} is a DRAFT (not every sign-off is dated); the signature records that it is of a draft",
+                    file.display()
+                );
+            }
+            eprintln!("wrote {} (its sha256 line is the file hash (PDF))", signed.path.display());
             Ok(ExitCode::SUCCESS)
         }
         Cmd::Diff { old, new, json } => {
-            let a = verify::open(&old)?;
-            let b = verify::open(&new)?;
-            let d = diff::diff(&a.payload_json, &b.payload_json);
+            let a = diff::load(&old)?;
+            let b = diff::load(&new)?;
+            let d = diff::compare(&a, &b);
             if json {
                 println!("{}", serde_json::to_string_pretty(&d).map_err(|e| Error::Usage(e.to_string()))?);
             } else {

@@ -198,10 +198,14 @@ fn cases() -> Vec<Case> {
         case("a comment the fonts cannot draw", with("fc = 6.0", "fc = 6.0 # 强度"), "comment"),
         case(
             "bidirectional override",
-            with("id = \"R-1\"", "id = \"R-1\"\ndescription = \"abc \u202E fed\""),
+            with("id = \"R-1\"", "id = \"R-1\"\ndescription = \"abc \\u202E fed\""),
             "U+202E",
         ),
-        case("a word too long to wrap", with("id = \"R-1\"", &format!("id = \"R-1\"\ndescription = \"{}\"", "w".repeat(40))), "without a space"),
+        case(
+            "a word too long to wrap",
+            with("id = \"R-1\"", &format!("id = \"R-1\"\ndescription = \"{}\"", "w".repeat(40))),
+            "without a space",
+        ),
         case("an id too long for its cells", with("id = \"R-1\"", "id = \"R-1-second-floor-east\""), "at most 16"),
         case("misspelt key", with("fc = 6.0", "fc = 6.0\nlambd = 1.0"), "did you mean `lambda`"),
         case("strand height above the section", with("depth = 21.0", "height = 30.0"), "height = 30 in"),
@@ -420,4 +424,139 @@ fn quick_reading_agrees_with_the_toml_crate() {
     let decided = texts.iter().filter(|(name, text)| quick_agrees::<File>(name, text)).count();
     // well-formed TOML with bad values, and every valid package, is read the same both ways
     assert!(decided >= 40, "only {decided} of {} decided quickly", texts.len());
+}
+
+/// Runs the program, failing (not hanging) if it has not ended within `secs`.
+fn run_within(args: &[&std::ffi::OsStr], secs: u64) -> (Option<i32>, String) {
+    let mut child = bin()
+        .args(args)
+        .stdin(std::process::Stdio::null())
+        .stdout(std::process::Stdio::piped())
+        .stderr(std::process::Stdio::piped())
+        .spawn()
+        .unwrap();
+    let start = std::time::Instant::now();
+    loop {
+        if child.try_wait().unwrap().is_some() {
+            break;
+        }
+        if start.elapsed() > std::time::Duration::from_secs(secs) {
+            let _ = child.kill();
+            let _ = child.wait();
+            panic!("{:?} did not end within {secs} s (blocked or reading without end)", args);
+        }
+        std::thread::sleep(std::time::Duration::from_millis(20));
+    }
+    let out = child.wait_with_output().unwrap();
+    (out.status.code(), format!("{}{}", String::from_utf8_lossy(&out.stdout), String::from_utf8_lossy(&out.stderr)))
+}
+
+/// `verify`, `diff` and `sign` (its package and its key), and `verify --pubkey`, given a
+/// named pipe or an endless device: each refuses at once, naming the file and why.
+#[cfg(target_os = "linux")]
+#[test]
+fn integrity_commands_refuse_pipes_and_devices_at_once() {
+    use std::ffi::OsStr;
+    let dir = tempfile::tempdir().unwrap();
+    let fifo = dir.path().join("pipe.pdf");
+    let c = std::ffi::CString::new(fifo.to_str().unwrap()).unwrap();
+    // SAFETY: mkfifo reads the NUL-terminated path.
+    assert_eq!(unsafe { libc::mkfifo(c.as_ptr(), 0o644) }, 0);
+    let toml = dir.path().join("pipe.toml");
+    let c = std::ffi::CString::new(toml.to_str().unwrap()).unwrap();
+    // SAFETY: as above.
+    assert_eq!(unsafe { libc::mkfifo(c.as_ptr(), 0o644) }, 0);
+    // a real package and a key, to reach the key and signature reads
+    let pdf = dir.path().join("real.pdf");
+    let o = bin()
+        .args(["report", example("inverted-tee-girder.toml").to_str().unwrap(), "-o", pdf.to_str().unwrap()])
+        .output()
+        .unwrap();
+    assert!(matches!(o.status.code(), Some(0 | 3)), "{}", String::from_utf8_lossy(&o.stderr));
+    let key = dir.path().join("k");
+    assert!(
+        bin()
+            .args(["keygen", "-o", key.to_str().unwrap(), "--name", "N", "--license", "L"])
+            .output()
+            .unwrap()
+            .status
+            .success()
+    );
+    let zero = Path::new("/dev/zero");
+    let (p, k, z, f, t) = (pdf.as_os_str(), key.as_os_str(), zero.as_os_str(), fifo.as_os_str(), toml.as_os_str());
+    let os = OsStr::new;
+    let cases: Vec<(Vec<&OsStr>, Option<i32>, &str, &str)> = vec![
+        (vec![os("verify"), f], Some(2), "pipe.pdf", "named pipe"),
+        (vec![os("verify"), z], Some(2), "/dev/zero", "character device"),
+        (vec![os("diff"), f, p], Some(2), "pipe.pdf", "named pipe"),
+        (vec![os("diff"), p, z], Some(2), "/dev/zero", "character device"),
+        (vec![os("diff"), t, p], Some(2), "pipe.toml", "named pipe"),
+        (vec![os("sign"), f, os("--key"), k], Some(2), "pipe.pdf", "named pipe"),
+        (vec![os("sign"), p, os("--key"), f], Some(2), "pipe.pdf", "named pipe"),
+        (vec![os("sign"), p, os("--key"), z], Some(2), "/dev/zero", "character device"),
+        (vec![os("verify"), p, os("--pubkey"), f], Some(1), "pipe.pdf", "named pipe"),
+        (vec![os("verify"), p, os("--pubkey"), z], Some(1), "/dev/zero", "character device"),
+    ];
+    // a real signature, so that verify --pubkey reaches the key
+    let o = bin().args(["sign", pdf.to_str().unwrap(), "--key", key.to_str().unwrap()]).output().unwrap();
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    let mut failures = Vec::new();
+    for (args, code, name, why) in &cases {
+        let (got, out) = run_within(args, 60);
+        if got != *code || !out.contains(name) || !out.contains(why) || out.contains("panicked") {
+            failures.push(format!("{args:?}: exit {got:?}\n{out}"));
+        }
+    }
+    // a signature file that is a pipe, read by verify --pubkey
+    let sig = dir.path().join("real.pdf.sig");
+    std::fs::remove_file(&sig).unwrap();
+    let c = std::ffi::CString::new(sig.to_str().unwrap()).unwrap();
+    // SAFETY: as above.
+    assert_eq!(unsafe { libc::mkfifo(c.as_ptr(), 0o644) }, 0);
+    let pubkey = dir.path().join("k.pub");
+    let (got, out) = run_within(&[os("verify"), p, os("--pubkey"), pubkey.as_os_str()], 60);
+    if got != Some(1) || !out.contains("real.pdf.sig") || !out.contains("named pipe") {
+        failures.push(format!("signature file a pipe: exit {got:?}\n{out}"));
+    }
+    // a sidecar that is a pipe is not read: the check is not run, and says why
+    std::fs::remove_file(&sig).unwrap();
+    let side = dir.path().join("real.pdf.sha256");
+    std::fs::remove_file(&side).unwrap();
+    let c = std::ffi::CString::new(side.to_str().unwrap()).unwrap();
+    // SAFETY: as above.
+    assert_eq!(unsafe { libc::mkfifo(c.as_ptr(), 0o644) }, 0);
+    let (got, out) = run_within(&[os("verify"), p], 60);
+    if got != Some(0) || !out.contains("[--  ] sidecar") || !out.contains("named pipe") {
+        failures.push(format!("sidecar a pipe: exit {got:?}\n{out}"));
+    }
+    // a socket where the package should be
+    let sock = dir.path().join("sock.pdf");
+    let _listener = std::os::unix::net::UnixListener::bind(&sock).unwrap();
+    let (got, out) = run_within(&[os("verify"), sock.as_os_str()], 60);
+    if got != Some(2) || !out.contains("sock.pdf") || !out.contains("a socket") {
+        failures.push(format!("a socket: exit {got:?}\n{out}"));
+    }
+    assert!(failures.is_empty(), "{}", failures.join("\n\n"));
+}
+
+/// The bounded reader itself: a pipe with no writer is refused at once (a thread and a
+/// deadline make a regression fail, not hang), and so is an endless device.
+#[cfg(target_os = "linux")]
+#[test]
+fn the_reader_refuses_a_pipe_without_waiting() {
+    let dir = tempfile::tempdir().unwrap();
+    let fifo = dir.path().join("p");
+    let c = std::ffi::CString::new(fifo.to_str().unwrap()).unwrap();
+    // SAFETY: mkfifo reads the NUL-terminated path.
+    assert_eq!(unsafe { libc::mkfifo(c.as_ptr(), 0o644) }, 0);
+    let (tx, rx) = std::sync::mpsc::channel();
+    let f = fifo.clone();
+    std::thread::spawn(move || {
+        let a = strainsheet::files::read_regular(&f, 1024, "the file").map(|b| b.len());
+        let b = strainsheet::files::read_regular(Path::new("/dev/zero"), 1024, "the file").map(|b| b.len());
+        let _ = tx.send((a.map_err(|e| e.to_string()), b.map_err(|e| e.to_string())));
+    });
+    let (a, b) = rx.recv_timeout(std::time::Duration::from_secs(20)).expect("the reader blocked on a pipe or a device");
+    assert!(a.as_ref().is_err_and(|e| e.contains("named pipe") && e.contains("regular file")), "{a:?}");
+    assert!(b.as_ref().is_err_and(|e| e.contains("character device")), "{b:?}");
 }

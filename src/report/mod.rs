@@ -76,11 +76,30 @@ impl Templates {
     /// Reads a template folder: regular files only (links are refused), at most
     /// [`MAX_TEMPLATE_FILES`] files and 20 MiB. The folder must hold the three entry
     /// templates: `package.typ`, `members.typ` and `stamps.typ`.
+    ///
+    /// Each entry is opened once, relative to its folder as opened, without following a
+    /// link (`O_NOFOLLOW`), and what was opened is checked (`fstat`): an entry swapped for
+    /// a link, a pipe or a device after the folder was listed is refused, never followed
+    /// or waited on.
     pub fn from_dir(dir: &Path) -> Result<Templates> {
+        use std::io::Read;
+        let link = |p: &Path| {
+            Error::Usage(format!(
+                "{}: the template folder holds a link; links are not followed, copy the file in instead",
+                p.display()
+            ))
+        };
+        let swapped = |p: &Path, kind: &str| {
+            Error::Usage(format!(
+                "{}: this entry of the template folder became {kind} while the folder was read; it is not read",
+                p.display()
+            ))
+        };
         let mut files = BTreeMap::new();
         let mut total = 0u64;
-        let mut stack = vec![(dir.to_path_buf(), String::new())];
-        while let Some((path, rel)) = stack.pop() {
+        let root = open_entry(None, dir, true).map_err(|e| Error::io(dir, e))?;
+        let mut stack = vec![(root, dir.to_path_buf(), String::new())];
+        while let Some((folder, path, rel)) = stack.pop() {
             let entries = std::fs::read_dir(&path).map_err(|e| Error::io(&path, e))?;
             let mut entries: Vec<_> = entries.filter_map(|e| e.ok()).collect();
             entries.sort_by_key(|e| e.file_name());
@@ -90,17 +109,27 @@ impl Templates {
                 let meta = std::fs::symlink_metadata(&p).map_err(|err| Error::io(&p, err))?;
                 let vrel = if rel.is_empty() { name.clone() } else { format!("{rel}/{name}") };
                 if meta.file_type().is_symlink() {
-                    return Err(Error::Usage(format!(
-                        "{}: the template folder holds a link; links are not followed, copy the file in instead",
-                        p.display()
-                    )));
+                    return Err(link(&p));
                 }
+                if !meta.is_dir() && !meta.is_file() {
+                    continue;
+                }
+                // open what the name holds now, in the folder as opened, never through a link
+                let opened = match open_entry(Some(&folder), &p, meta.is_dir()) {
+                    Ok(f) => f,
+                    Err(err) if is_link_error(&err) => return Err(link(&p)),
+                    Err(err) => return Err(Error::io(&p, err)),
+                };
+                let now = opened.metadata().map_err(|err| Error::io(&p, err))?;
                 if meta.is_dir() {
-                    stack.push((p, vrel));
+                    if !now.is_dir() {
+                        return Err(swapped(&p, crate::files::kind_of(&now.file_type())));
+                    }
+                    stack.push((opened, p, vrel));
                     continue;
                 }
-                if !meta.is_file() {
-                    continue;
+                if !now.is_file() {
+                    return Err(swapped(&p, crate::files::kind_of(&now.file_type())));
                 }
                 if DATA_FILES.contains(&vrel.as_str()) {
                     return Err(Error::Usage(format!(
@@ -108,14 +137,24 @@ impl Templates {
                         p.display()
                     )));
                 }
-                total += meta.len();
-                if files.len() >= MAX_TEMPLATE_FILES || total > MAX_TEMPLATE_BYTES {
-                    return Err(Error::Usage(format!(
+                let too_large = || {
+                    Error::Usage(format!(
                         "{}: the template folder is too large (at most {MAX_TEMPLATE_FILES} files and 20 MiB)",
                         dir.display()
-                    )));
+                    ))
+                };
+                if files.len() >= MAX_TEMPLATE_FILES || total + now.len() > MAX_TEMPLATE_BYTES {
+                    return Err(too_large());
                 }
-                let bytes = std::fs::read(&p).map_err(|err| Error::io(&p, err))?;
+                // read what was opened, and no more than the limit leaves (a file that grows
+                // while it is read is stopped there)
+                let room = MAX_TEMPLATE_BYTES - total;
+                let mut bytes = Vec::with_capacity(now.len() as usize);
+                opened.take(room + 1).read_to_end(&mut bytes).map_err(|err| Error::io(&p, err))?;
+                if bytes.len() as u64 > room {
+                    return Err(too_large());
+                }
+                total += bytes.len() as u64;
                 files.insert(format!("/{vrel}"), bytes);
             }
         }
@@ -150,6 +189,55 @@ impl Templates {
             Some(h) => format!("sha256:{h}"),
         }
     }
+}
+
+/// Opens an entry of a template folder for [`Templates::from_dir`]: on Linux relative to
+/// its folder as opened (`openat`), never following a link at its name (`O_NOFOLLOW`) and
+/// never waiting (`O_NONBLOCK`: a pipe put in its place opens at once, and is refused by
+/// its type); `folder` is `None` for the folder given, which is opened by its path.
+fn open_entry(folder: Option<&std::fs::File>, path: &Path, dir: bool) -> std::io::Result<std::fs::File> {
+    #[cfg(target_os = "linux")]
+    {
+        use std::os::fd::{AsRawFd, FromRawFd};
+        use std::os::unix::ffi::OsStrExt;
+        let mut flags = libc::O_RDONLY | libc::O_CLOEXEC | libc::O_NONBLOCK;
+        if dir {
+            flags |= libc::O_DIRECTORY;
+        }
+        let (at, name) = match folder {
+            Some(f) => {
+                flags |= libc::O_NOFOLLOW;
+                (f.as_raw_fd(), path.file_name().unwrap_or(path.as_os_str()))
+            }
+            None => (libc::AT_FDCWD, path.as_os_str()),
+        };
+        let c = std::ffi::CString::new(name.as_bytes())
+            .map_err(|_| std::io::Error::new(std::io::ErrorKind::InvalidInput, "a name with a NUL byte"))?;
+        // SAFETY: openat reads the NUL-terminated name; `at` is a descriptor we hold open
+        // (or AT_FDCWD). A descriptor it returns is ours alone, and File takes it over.
+        let fd = unsafe { libc::openat(at, c.as_ptr(), flags) };
+        if fd < 0 {
+            return Err(std::io::Error::last_os_error());
+        }
+        // SAFETY: fd is a fresh, valid descriptor that nothing else owns.
+        Ok(unsafe { std::fs::File::from_raw_fd(fd) })
+    }
+    #[cfg(not(target_os = "linux"))]
+    {
+        // elsewhere the entry is opened by its path; what was opened is still checked
+        let _ = (folder, dir);
+        std::fs::File::open(path)
+    }
+}
+
+/// Whether opening failed because the name is a link (`O_NOFOLLOW` gives ELOOP).
+fn is_link_error(e: &std::io::Error) -> bool {
+    #[cfg(target_os = "linux")]
+    if e.raw_os_error() == Some(libc::ELOOP) {
+        return true;
+    }
+    let _ = e;
+    false
 }
 
 /// A rendered package.
