@@ -75,3 +75,62 @@ impl CheckJson {
         present::write_check_json(w, pkg, self.status, &self.pieces)
     }
 }
+
+/// The forms `trace` writes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum TraceForm {
+    Text,
+    Json,
+    Csv,
+}
+
+/// `trace`: every step of the members chosen (all where `member` is `None`), analysed a
+/// few at a time and written as they are done, so the memory needed does not grow with
+/// the package. The JSON is `{"format": 1, "units": {...}, "steps": [...]}`, a step a
+/// line. An analysis error stops the writing and is returned in `Ok(Err(..))`; a
+/// writing error in `Err` (a closed pipe is then the reader's choice).
+pub fn write_trace(
+    pkg: &input::Package,
+    member: Option<&str>,
+    form: TraceForm,
+    w: &mut dyn std::io::Write,
+) -> std::io::Result<Result<()>> {
+    use rayon::prelude::*;
+    let chosen: Vec<&input::model::Member> =
+        pkg.members.iter().filter(|m| member.is_none_or(|id| m.id == id)).collect();
+    match form {
+        TraceForm::Json => {
+            w.write_all(b"{\"format\":1,\"units\":")?;
+            serde_json::to_writer(&mut *w, &pkg.units.names())?;
+            w.write_all(b",\"steps\":[")?;
+        }
+        TraceForm::Csv => w.write_all(present::TRACE_CSV_HEAD.as_bytes())?,
+        TraceForm::Text => {}
+    }
+    let mut first = true;
+    for chunk in chosen.chunks(8) {
+        let done: Vec<Result<analysis::MemberResult>> =
+            chunk.par_iter().map(|m| analysis::analyze_member(m, pkg.units, true)).collect();
+        for r in done {
+            let r = match r {
+                Ok(r) => r,
+                Err(e) => return Ok(Err(e)),
+            };
+            match form {
+                TraceForm::Text => w.write_all(present::trace_text(pkg, &[&r]).as_bytes())?,
+                TraceForm::Csv => w.write_all(present::trace_csv_rows(pkg, &[&r]).as_bytes())?,
+                TraceForm::Json => {
+                    for st in present::trace_json_steps(pkg, &r) {
+                        w.write_all(if first { b"\n" } else { b",\n" })?;
+                        first = false;
+                        serde_json::to_writer(&mut *w, &st)?;
+                    }
+                }
+            }
+        }
+    }
+    if form == TraceForm::Json {
+        w.write_all(b"\n]}\n")?;
+    }
+    Ok(Ok(()))
+}

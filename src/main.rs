@@ -28,6 +28,59 @@ struct Cli {
     cmd: Cmd,
 }
 
+/// Bounds on typesetting, so that a template folder that loops or grows without end
+/// stops with a message instead of holding the machine. The defaults are far beyond
+/// any real package here (500 members: about 70 s and 2.5 GB).
+#[derive(clap::Args, Clone, Copy)]
+struct Bounds {
+    /// Stop typesetting after this many seconds.
+    #[arg(long, value_name = "SECONDS", default_value_t = 900)]
+    time_limit: u64,
+    /// Stop when the process holds more than this many megabytes.
+    #[arg(long, value_name = "MB", default_value_t = 12_000)]
+    memory_limit: u64,
+}
+
+/// The most members `report` typesets in one package (a member takes about 8 sheets,
+/// 0.14 s and 5 MB here); a larger project is split into packages.
+const REPORT_MEMBERS: usize = 500;
+
+/// Watches the time and the memory of the typesetting from another thread; past a
+/// bound it says which and why, removes what was being written and ends the process
+/// with status 2. Typst cannot be stopped in the middle of a layout, so the process
+/// is.
+fn watchdog(bounds: Bounds, templates: Option<&std::path::Path>) {
+    let started = std::time::Instant::now();
+    let folder = templates.map(|d| format!(" (the template folder {} may loop or grow without end)", d.display()));
+    std::thread::spawn(move || {
+        loop {
+            std::thread::sleep(std::time::Duration::from_millis(100));
+            let over = if started.elapsed().as_secs() >= bounds.time_limit {
+                Some(format!("typesetting did not finish within {} s", bounds.time_limit))
+            } else {
+                resident_mb()
+                    .filter(|mb| *mb > bounds.memory_limit)
+                    .map(|mb| format!("typesetting took {mb} MB, beyond {} MB", bounds.memory_limit))
+            };
+            if let Some(what) = over {
+                let written = output::remove_pending();
+                eprintln!(
+                    "error: {what}{}; raise --time-limit or --memory-limit for a package that needs more. {written}.",
+                    folder.clone().unwrap_or_default()
+                );
+                std::process::exit(2);
+            }
+        }
+    });
+}
+
+/// The process's resident memory in megabytes (Linux; elsewhere not watched).
+fn resident_mb() -> Option<u64> {
+    let status = std::fs::read_to_string("/proc/self/statm").ok()?;
+    let pages: u64 = status.split_whitespace().nth(1)?.parse().ok()?;
+    Some(pages * 4096 / (1024 * 1024))
+}
+
 #[derive(Clone, Copy, ValueEnum)]
 enum Units {
     Us,
@@ -82,6 +135,8 @@ enum Cmd {
         /// templates/ folder).
         #[arg(long, value_name = "DIR")]
         templates: Option<PathBuf>,
+        #[command(flatten)]
+        bounds: Bounds,
     },
     /// Prove a package unchanged: content hash (payload), re-analysis, byte-identical
     /// re-render, the sidecar's file hash (PDF), (with --pubkey) the file signature and
@@ -103,6 +158,8 @@ enum Cmd {
         /// hash proves a package of any version.
         #[arg(long, value_name = "HASH")]
         expect: Option<String>,
+        #[command(flatten)]
+        bounds: Bounds,
     },
     /// Write an Ed25519 key pair for signing packages: KEY (private, mode 0600) and
     /// KEY.pub. A file signature proves who issued a file; it is not a professional seal
@@ -263,7 +320,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             };
             Ok(result_code(status))
         }
-        Cmd::Report { file, output, overwrite, templates } => {
+        Cmd::Report { file, output, overwrite, templates, bounds } => {
             no_huge_pages();
             let out = output.unwrap_or_else(|| file.with_extension("pdf"));
             let mut side_path = out.clone().into_os_string();
@@ -271,6 +328,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             let side_path = PathBuf::from(side_path);
             // refuse what could not be written before the work of making it
             output::preflight(&[&out, &side_path], overwrite)?;
+            let templates_dir = templates.clone();
             let templates = match templates {
                 Some(dir) => report::Templates::from_dir(&dir)?,
                 None => report::Templates::builtin(),
@@ -278,6 +336,15 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             let progress = Progress::new();
             progress.phase("reading and checking the input");
             let (src, pkg) = input::load(&file)?;
+            if pkg.members.len() > REPORT_MEMBERS {
+                return Err(Error::Usage(format!(
+                    "{} has {} members; a package typesets at most {REPORT_MEMBERS} (about {} sheets). Split the members into several input files, one package each; `check` takes them all at once.",
+                    file.display(),
+                    pkg.members.len(),
+                    REPORT_MEMBERS * 8
+                )));
+            }
+            watchdog(bounds, templates_dir.as_deref());
             progress.phase(format!("analysing {} members", pkg.members.len()));
             let a = analysis::analyze_full(&pkg)?;
             let status = a.status();
@@ -299,8 +366,9 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             );
             Ok(result_code(status))
         }
-        Cmd::Verify { file, templates, pubkey, expect } => {
+        Cmd::Verify { file, templates, pubkey, expect, bounds } => {
             no_huge_pages();
+            watchdog(bounds, templates.as_deref());
             let r = verify::verify(
                 &file,
                 &verify::Options {
@@ -402,26 +470,28 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
         Cmd::Trace { file, member, format } => {
             let (_, pkg) = input::load(&file)?;
             print_warnings(&pkg);
-            let a = analysis::analyze(&pkg, true)?;
-            let chosen: Vec<_> = a.members.iter().filter(|m| member.as_ref().is_none_or(|id| &m.id == id)).collect();
-            if chosen.is_empty() {
-                let ids: Vec<&str> = a.members.iter().map(|m| m.id.as_str()).collect();
+            if let Some(id) = &member
+                && !pkg.members.iter().any(|m| &m.id == id)
+            {
+                let ids: Vec<&str> = pkg.members.iter().map(|m| m.id.as_str()).collect();
                 return Err(Error::Usage(format!(
-                    "no member {:?} in {}; its members are {}",
-                    member.unwrap_or_default(),
+                    "no member {id:?} in {}; its members are {}",
                     file.display(),
                     ids.join(", ")
                 )));
             }
-            match format {
-                TraceFormat::Text => print!("{}", present::trace_text(&pkg, &chosen)),
-                TraceFormat::Json => println!(
-                    "{}",
-                    serde_json::to_string_pretty(&present::trace_json(&pkg, &chosen))
-                        .map_err(|e| Error::Usage(e.to_string()))?
-                ),
-                TraceFormat::Csv => print!("{}", present::trace_csv(&pkg, &chosen)),
-            }
+            let form = match format {
+                TraceFormat::Text => strainsheet::TraceForm::Text,
+                TraceFormat::Json => strainsheet::TraceForm::Json,
+                TraceFormat::Csv => strainsheet::TraceForm::Csv,
+            };
+            // an analysis error stops the writing and is reported
+            let mut outcome = Ok(());
+            write_stdout(|w| {
+                outcome = strainsheet::write_trace(&pkg, member.as_deref(), form, w)?;
+                Ok(())
+            })?;
+            outcome?;
             Ok(ExitCode::SUCCESS)
         }
     }

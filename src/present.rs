@@ -357,8 +357,8 @@ pub fn trace_text(pkg: &Package, members: &[&MemberResult]) -> String {
     out
 }
 
-/// The steps of the selected members as JSON (each step with its printed formula).
-pub fn trace_json(pkg: &Package, members: &[&MemberResult]) -> Value {
+/// The steps of one member as JSON values (each step with its printed formula).
+pub fn trace_json_steps(pkg: &Package, m: &MemberResult) -> Vec<Value> {
     let step = |st: &Step, member: &str, location: Option<&str>| {
         let printed = st.printed(Style::Plain);
         json!({
@@ -379,18 +379,25 @@ pub fn trace_json(pkg: &Package, members: &[&MemberResult]) -> Value {
         })
     };
     let mut steps = Vec::new();
-    for m in members {
-        for st in &m.trace {
-            steps.push(step(st, &m.id, None));
-        }
-        for l in &m.locations {
-            for st in &l.trace {
-                steps.push(step(st, &m.id, Some(&l.name)));
-            }
+    for st in &m.trace {
+        steps.push(step(st, &m.id, None));
+    }
+    for l in &m.locations {
+        for st in &l.trace {
+            steps.push(step(st, &m.id, Some(&l.name)));
         }
     }
+    steps
+}
+
+/// The steps of the selected members as JSON.
+pub fn trace_json(pkg: &Package, members: &[&MemberResult]) -> Value {
+    let steps: Vec<Value> = members.iter().flat_map(|m| trace_json_steps(pkg, m)).collect();
     json!({"format": 1, "units": pkg.units.names(), "steps": steps})
 }
+
+/// The CSV header line of [`trace_csv`].
+pub const TRACE_CSV_HEAD: &str = "member,location,id,title,symbol,formula,substituted,value,unit,clause\n";
 
 fn csv_field(s: &str) -> String {
     if s.contains([',', '"', '\n']) { format!("\"{}\"", s.replace('"', "\"\"")) } else { s.to_string() }
@@ -399,7 +406,14 @@ fn csv_field(s: &str) -> String {
 /// The steps as CSV: member, location, id, title, symbol, formula, substituted, value,
 /// unit, clause.
 pub fn trace_csv(pkg: &Package, members: &[&MemberResult]) -> String {
-    let mut out = String::from("member,location,id,title,symbol,formula,substituted,value,unit,clause\n");
+    let mut out = String::from(TRACE_CSV_HEAD);
+    out.push_str(&trace_csv_rows(pkg, members));
+    out
+}
+
+/// The rows of [`trace_csv`], without its header.
+pub fn trace_csv_rows(pkg: &Package, members: &[&MemberResult]) -> String {
+    let mut out = String::new();
     let mut row = |m: &str, l: &str, st: &Step| {
         let (f, s) = st.printed(Style::Plain).unwrap_or_default();
         let cells = [

@@ -153,3 +153,22 @@ fn check_json_pieces_equal_the_whole() {
         assert!(whole == pieces, "{name}: the assembled JSON differs from the whole");
     }
 }
+
+/// `report` typesets at most 500 members and says to split a larger package; `check`
+/// and `trace` take it whole (trace writing member by member).
+#[test]
+fn report_refuses_a_package_too_large_to_typeset() {
+    let text = replicated("parking-double-tee.toml", 502);
+    let dir = tempfile::tempdir().unwrap();
+    let f = dir.path().join("big.toml");
+    std::fs::write(&f, text).unwrap();
+    let out = dir.path().join("big.pdf");
+    let o = bin().args(["report", f.to_str().unwrap(), "-o", out.to_str().unwrap()]).output().unwrap();
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert_eq!(o.status.code(), Some(2), "{err}");
+    assert!(err.contains("at most 500") && err.contains("Split"), "{err}");
+    assert!(!out.exists());
+    let o = bin().args(["trace", "--format", "json", f.to_str().unwrap()]).output().unwrap();
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert!(v["steps"].as_array().unwrap().len() > 500 * 100);
+}

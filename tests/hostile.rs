@@ -560,3 +560,48 @@ fn the_reader_refuses_a_pipe_without_waiting() {
     assert!(a.as_ref().is_err_and(|e| e.contains("named pipe") && e.contains("regular file")), "{a:?}");
     assert!(b.as_ref().is_err_and(|e| e.contains("character device")), "{b:?}");
 }
+
+/// A polygon section at the documented limits (a 2,000-point outline and holes of
+/// 3,000 points in all, their bounding boxes overlapping) is checked in well under a
+/// second here; one point more in all is refused.
+#[test]
+fn a_polygon_at_the_limits_is_checked_quickly() {
+    let ring = |pts: Vec<(f64, f64)>| {
+        format!("[{}]", pts.iter().map(|(x, y)| format!("[{x:.6}, {y:.6}]")).collect::<Vec<_>>().join(", "))
+    };
+    let outline: Vec<(f64, f64)> = (0..2000)
+        .map(|k| {
+            let a = k as f64 / 2000.0 * std::f64::consts::TAU;
+            (100.0 * a.cos(), 100.0 + 100.0 * a.sin())
+        })
+        .collect();
+    // ten thin parallel stripes on the diagonal, 300 points each
+    let c = std::f64::consts::FRAC_1_SQRT_2;
+    let stripes: Vec<String> = (0..10)
+        .map(|h| {
+            let off = (h as f64 - 4.5) * 8.0;
+            let mut pts = Vec::new();
+            for k in 0..150 {
+                pts.push((-40.0 + 80.0 * k as f64 / 149.0, -1.0));
+            }
+            for k in 0..150 {
+                pts.push((40.0 - 80.0 * k as f64 / 149.0, 1.0));
+            }
+            ring(pts.into_iter().map(|(t, n)| (t * c - (n + off) * c, t * c + (n + off) * c + 100.0)).collect())
+        })
+        .collect();
+    let section = |holes: &[String]| {
+        format!(
+            "{HEAD_US}[[member]]\nid = \"P\"\nmu = 10.0\n[member.concrete]\nfc = 6.0\n[member.section]\nshape = \"polygon\"\noutline = {}\nholes = [{}]\n[[member.strands]]\nheight = 2.0\ncount = 4\ndiameter = 0.5\nfse = 160.0\n",
+            ring(outline.clone()),
+            holes.join(", ")
+        )
+    };
+    let started = std::time::Instant::now();
+    let pkg = parse(&section(&stripes));
+    strainsheet::analysis::analyze(&pkg, false).unwrap();
+    assert!(started.elapsed().as_secs_f64() < 5.0, "{:?}", started.elapsed());
+    let mut more = stripes.clone();
+    more.push("[[0.0, 190.0], [1.0, 190.0], [0.5, 191.0]]".into());
+    assert!(parse_err(&section(&more)).contains("at most 5000 points"));
+}

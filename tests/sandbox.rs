@@ -214,3 +214,34 @@ fn an_interrupted_report_leaves_the_old_file_and_no_temporary() {
     assert!(names.iter().all(|n| !n.ends_with(".part")), "temporary files left: {names:?}");
     assert!(status.code() == Some(130) || status.success(), "{status:?}");
 }
+
+/// A template folder that loops without end, or doubles a string until memory runs out,
+/// is stopped at the bound given, with a message naming the folder; nothing is written.
+#[test]
+fn a_runaway_template_is_stopped_at_its_bounds() {
+    let outside = tempfile::tempdir().unwrap();
+    let cases = [
+        (
+            "--time-limit",
+            "3",
+            "#for i in range(100000) { for j in range(100000) { let k = i + j } }\n",
+            "did not finish within 3 s",
+        ),
+        ("--memory-limit", "400", "#let s = \"x\"\n#for i in range(40) { s = s + s }\n#s.len()\n", "beyond 400 MB"),
+    ];
+    for (flag, value, text, said) in cases {
+        let dir = template_dir(text);
+        let out = outside.path().join("runaway.pdf");
+        let started = std::time::Instant::now();
+        let o = bin()
+            .args(["report", example("hollow-core-plank.toml").to_str().unwrap(), "-o", out.to_str().unwrap()])
+            .args(["--templates", dir.path().to_str().unwrap(), flag, value])
+            .output()
+            .unwrap();
+        let err = String::from_utf8_lossy(&o.stderr);
+        assert_eq!(o.status.code(), Some(2), "{flag}: {err}");
+        assert!(err.contains(said) && err.contains(dir.path().to_str().unwrap()), "{flag}: {err}");
+        assert!(started.elapsed().as_secs() < 60, "{flag}: {:?}", started.elapsed());
+        assert!(!out.exists());
+    }
+}

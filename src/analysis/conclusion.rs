@@ -147,16 +147,16 @@ pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck) {
                 u.moment,
                 show(c.points.last().map_or(0.0, |p| p.strand_strain) * 100.0),
             )),
-            RuptureCheck::Curve(c) if c.ended_by == "strand rupture" && l.phi * c.peak.moment >= l.mu => {
+            RuptureCheck::Curve(c) if c.ended_by == "strand rupture" && l.phi * c.ultimate.moment >= l.mu => {
                 l.notes.push(format!(
-                    "{strain}. The moment-curvature analysis of this section reaches strand rupture after a largest moment of {} {}; φ times that, {} {}, is at least Mu = {} {}: the demand is carried before the strand ruptures.{}",
-                    show(c.peak.moment),
+                    "{strain}. The moment-curvature analysis of this section reaches strand rupture at a moment of {} {}; φ times that, {} {}, is at least Mu = {} {}: the demand is carried before the strand ruptures.{}",
+                    show(c.ultimate.moment),
                     u.moment,
-                    show(l.phi * c.peak.moment),
+                    show(l.phi * c.ultimate.moment),
                     u.moment,
                     show(l.mu),
                     u.moment,
-                    if c.peak.moment < l.mn {
+                    if c.ultimate.moment < l.mn {
                         format!(" The stress-block Mn = {} {} is not reached before rupture; the demand is met by the lower moment.", show(l.mn), u.moment)
                     } else {
                         String::new()
@@ -167,11 +167,11 @@ pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck) {
                 kind: ConditionKind::StrandRupture,
                 short: rupture_short(l),
                 text: format!(
-                    "{strain}, and the moment-curvature analysis of this section ends by {} at a largest moment of {} {} (φ times that: {} {}, against Mu = {} {}): the strand may rupture before the section reaches its strength. Review the strand's elongation capacity.",
+                    "{strain}, and the moment-curvature analysis of this section ends by {} at a moment of {} {} (φ times that: {} {}, against Mu = {} {}): the strand may rupture before the section reaches its strength. Review the strand's elongation capacity.",
                     c.ended_by,
-                    show(c.peak.moment),
+                    show(c.ultimate.moment),
                     u.moment,
-                    show(l.phi * c.peak.moment),
+                    show(l.phi * c.ultimate.moment),
                     u.moment,
                     show(l.mu),
                     u.moment

@@ -317,6 +317,12 @@ fn build(p: &Prepared, loc: &Location, li: usize) -> Fibres {
 
 /// The moment-curvature curve of a member at one of its locations (by index).
 pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResult> {
+    moment_curvature_points(m, sys, li, m.curve.points)
+}
+
+/// The curve with `points` points after the march (at least 2). The march, and so the
+/// end and what ended the curve, do not depend on it; the peak is that of the points.
+pub fn moment_curvature_points(m: &Member, sys: System, li: usize, points: usize) -> Result<CurveResult> {
     let loc = m.locations.get(li).ok_or_else(|| Error::Usage(format!("member {} has no location {}", m.id, li + 1)))?;
     let mut tr = Trace::new(false);
     let p = prepare(m, sys, &mut tr)?;
@@ -453,7 +459,7 @@ pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResul
 
     // points: denser at the start, where cracking happens; each solved from the
     // marched state just below it, so it lies on the same branch
-    let n = opts.points.max(2);
+    let n = points.max(2);
     let mut states: Vec<(f64, State)> = Vec::with_capacity(n + 4);
     let mut k = 0;
     for j in 1..=n {

@@ -772,7 +772,8 @@ pub fn analyze_member(m: &Member, sys: System, trace: bool) -> Result<MemberResu
     // strand strained beyond its elongation: the section's moment-curvature curve says
     // whether it ruptures before the demand is carried
     for (li, l) in locations.iter_mut().enumerate() {
-        let curve = l.rupture_risk.then(|| curve::moment_curvature(m, sys, li));
+        // only the end of the curve is asked for: two points (the march is the same)
+        let curve = l.rupture_risk.then(|| curve::moment_curvature_points(m, sys, li, 2));
         let check = match &curve {
             None => conclusion::RuptureCheck::NotAsked,
             Some(Ok(c)) => conclusion::RuptureCheck::Curve(c),

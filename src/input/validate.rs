@@ -19,6 +19,9 @@ pub mod limits {
     pub const LOCATIONS: usize = 50;
     pub const VERTICES: usize = 2_000;
     pub const HOLES: usize = 100;
+    /// Points of a polygon section, its outline and holes together: the checks that
+    /// the rings are simple and apart compare edges pair by pair.
+    pub const SECTION_POINTS: usize = 5_000;
     pub const STRANDS_PER_LAYER: i64 = 200;
     pub const BARS_PER_LAYER: i64 = 100;
     pub const TEXT: usize = 2_000;
@@ -935,6 +938,15 @@ fn polygon(cx: &mut Ctx, s: &raw::Section) -> Option<Shape> {
     let raw_holes = s.holes.as_deref().unwrap_or(&[]);
     if raw_holes.len() > limits::HOLES {
         cx.problem("holes", format!("there are {} holes", raw_holes.len()), Some(format!("at most {}", limits::HOLES)));
+        return None;
+    }
+    let total = outline.len() + raw_holes.iter().map(|h| h.len()).sum::<usize>();
+    if total > limits::SECTION_POINTS {
+        cx.problem(
+            "holes",
+            format!("the outline and holes have {total} points together"),
+            Some(format!("at most {} points in all (a hole's curve needs a few dozen)", limits::SECTION_POINTS)),
+        );
         return None;
     }
     let mut holes: Vec<Vec<P>> = Vec::new();

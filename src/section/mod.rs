@@ -515,8 +515,18 @@ pub fn check_ring(ring: &[P]) -> Result<(), RingFault> {
     Ok(())
 }
 
-/// Whether two rings' edges meet anywhere.
+/// Whether two rings' edges meet anywhere (rings whose bounding boxes are apart do
+/// not: most pairs of holes are settled by that alone).
 pub fn rings_meet(r: &[P], s: &[P]) -> bool {
+    let bbox = |ring: &[P]| {
+        ring.iter().fold([f64::INFINITY, f64::INFINITY, f64::NEG_INFINITY, f64::NEG_INFINITY], |b, p| {
+            [b[0].min(p[0]), b[1].min(p[1]), b[2].max(p[0]), b[3].max(p[1])]
+        })
+    };
+    let (a, b) = (bbox(r), bbox(s));
+    if a[2] < b[0] || b[2] < a[0] || a[3] < b[1] || b[3] < a[1] {
+        return false;
+    }
     let (n, m) = (r.len(), s.len());
     (0..n).any(|i| (0..m).any(|j| segments_meet(r[i], r[(i + 1) % n], s[j], s[(j + 1) % m])))
 }
