@@ -5,8 +5,9 @@
 use super::locate::Seg;
 use super::model::*;
 use super::schema::{self as raw, Q};
+use crate::basis::{Basis, BasisId, Clause};
 use crate::material::catalog;
-use crate::material::concrete::{self, Curve as ConcreteCurve};
+use crate::material::concrete::Curve as ConcreteCurve;
 use crate::material::strand::{Curve as StrandCurve, Grade, Model};
 use crate::section::shapes::{Shape, ShapeError, VOID_SIDES};
 use crate::section::{self, P, Region};
@@ -39,6 +40,8 @@ pub struct Problem {
 
 pub struct Ctx {
     pub sys: System,
+    /// The design basis the defaults follow (Ec, fr, Es, the jacking limit).
+    pub basis: &'static dyn Basis,
     path: Vec<Seg>,
     pub problems: Vec<Problem>,
     pub warnings: Vec<(Vec<Seg>, String)>,
@@ -129,8 +132,10 @@ fn written(q: &Q) -> String {
 }
 
 impl Ctx {
+    /// A context in a unit system, with the design basis that system defaults to until
+    /// the package names its own.
     pub fn new(sys: System) -> Ctx {
-        Ctx { sys, path: Vec::new(), problems: Vec::new(), warnings: Vec::new() }
+        Ctx { sys, basis: BasisId::Aci318.get(sys), path: Vec::new(), problems: Vec::new(), warnings: Vec::new() }
     }
 
     fn unit(&self, dim: Dim) -> &'static str {
@@ -397,12 +402,14 @@ pub fn package(cx: &mut Ctx, f: &raw::File) -> Option<Package> {
     // and keep the problems in member order
     use rayon::prelude::*;
     let sys = cx.sys;
+    let basis = cx.basis;
     let checked: Vec<Checked> = f
         .member
         .par_iter()
         .enumerate()
         .map(|(i, m)| {
             let mut c = Ctx::new(sys);
+            c.basis = basis;
             c.enter(Seg::Key("member"));
             c.enter(Seg::Idx(i));
             let r = member(&mut c, m);
@@ -437,19 +444,22 @@ fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
     let date = cx.date("date", &p.date);
     let date = cx.required("date", date, "the report date, e.g. 2026-11-30");
     let notes = cx.text("notes", &p.notes, limits::TEXT);
-    let basis = p.basis.clone().unwrap_or_else(|| "ACI 318-19".to_string());
-    let basis = match (basis.as_str(), cx.sys) {
-        ("ACI 318-19", System::Us) => "ACI 318-19".to_string(),
-        ("ACI 318-19" | "ACI 318M-19", System::Si) => "ACI 318M-19".to_string(),
-        _ => {
+    let named = p.basis.clone().unwrap_or_else(|| "ACI 318-19".to_string());
+    let basis_id = match BasisId::select(&named, cx.sys) {
+        Ok(id) => {
+            cx.basis = id.get(cx.sys);
+            id
+        }
+        Err(known) => {
             cx.problem(
                 "basis",
-                format!("basis = {basis:?} is not a code this version checks"),
-                Some("\"ACI 318-19\" (\"ACI 318M-19\" for SI packages)".to_string()),
+                format!("basis = {named:?} is not a design basis this version checks"),
+                Some(known.to_string()),
             );
-            String::new()
+            BasisId::Aci318
         }
     };
+    let basis = cx.basis.name().to_string();
     let paper = match p.paper.as_deref() {
         None => match cx.sys {
             System::Us => Paper::Letter,
@@ -600,6 +610,7 @@ fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
         revision: revision?,
         date: date?,
         basis,
+        basis_id,
         paper,
         notes,
         revisions,
@@ -654,14 +665,10 @@ fn concrete_of(cx: &mut Ctx, k: ConcreteKeys, defaults: &mut Vec<Default>, prefi
         Some(v) => (v, EcSource::Given),
         None if ec.is_some() => return None,
         None => match wc {
-            Some(wc) => (concrete::ec_density(fc, wc, cx.sys).value, EcSource::Density { wc }),
+            Some(wc) => (cx.basis.ec_density(fc, wc).value, EcSource::Density { wc }),
             None => {
-                let text = match cx.sys {
-                    System::Us => "Ec = 57,000 √f'c psi, normalweight (ACI 318-19 19.2.2.1(b))",
-                    System::Si => "Ec = 4700 √f'c MPa, normalweight (ACI 318M-19 19.2.2.1(b))",
-                };
-                defaults.push(Default { key: format!("{prefix}ec"), text: text.into() });
-                (concrete::ec_normalweight(fc, cx.sys).value, EcSource::Normalweight)
+                defaults.push(Default { key: format!("{prefix}ec"), text: cx.basis.ec_default_text() });
+                (cx.basis.ec_normalweight(fc).value, EcSource::Normalweight)
             }
         },
     };
@@ -670,12 +677,8 @@ fn concrete_of(cx: &mut Ctx, k: ConcreteKeys, defaults: &mut Vec<Default>, prefi
         Some(v) => (v, true),
         None if fr.is_some() => return None,
         None => {
-            let text = match cx.sys {
-                System::Us => "fr = 7.5 λ √f'c psi (ACI 318-19 19.2.3.1)",
-                System::Si => "fr = 0.62 λ √f'c MPa (ACI 318M-19 19.2.3.1)",
-            };
-            defaults.push(Default { key: format!("{prefix}fr"), text: text.into() });
-            (concrete::fr(fc, lambda_v, cx.sys).value, false)
+            defaults.push(Default { key: format!("{prefix}fr"), text: cx.basis.fr_default_text() });
+            (cx.basis.modulus_of_rupture(fc, lambda_v).value, false)
         }
     };
     let curve = match curve.as_deref() {
@@ -1304,7 +1307,7 @@ fn strand_layer(
             0.9 * fpu
         }
     };
-    let jack_limit = (0.8 * fpu).min(0.94 * fpy);
+    let jack_limit = cx.basis.jacking_limit(fpu, fpy);
     let how = exclusive(
         cx,
         &[("fse", s.fse.is_some()), ("losses", s.losses.is_some())],
@@ -1328,9 +1331,11 @@ fn strand_layer(
             cx.warn(
                 "fse",
                 format!(
-                    "fse = {} exceeds the jacking limit min(0.80 fpu, 0.94 fpy) = {}",
+                    "fse = {} exceeds the jacking limit {} = {} of {}",
                     cx.shown(Dim::Stress, v),
-                    cx.shown(Dim::Stress, jack_limit)
+                    cx.basis.jacking_limit_text(),
+                    cx.shown(Dim::Stress, jack_limit),
+                    cx.basis.cite(Clause::JackingLimit)
                 ),
             );
         }
@@ -1348,10 +1353,12 @@ fn strand_layer(
             cx.warn(
                 "jacking",
                 format!(
-                    "jacking = {} gives fpj = {}, above the limit min(0.80 fpu, 0.94 fpy) = {} of ACI 318-19 20.3.2.5.1",
+                    "jacking = {} gives fpj = {}, above the limit {} = {} of {}",
                     num(jacking),
                     cx.shown(Dim::Stress, fpj),
-                    cx.shown(Dim::Stress, jack_limit)
+                    cx.basis.jacking_limit_text(),
+                    cx.shown(Dim::Stress, jack_limit),
+                    cx.basis.cite(Clause::JackingLimit)
                 ),
             );
         }
@@ -1481,11 +1488,8 @@ fn bar_layer(cx: &mut Ctx, b: &raw::Bars, region: &Region, defaults: &mut Vec<De
     let es = match &b.es {
         Some(_) => cx.ranged("es", &b.es, Dim::Stress, r.es.0, r.es.1, false)?,
         None => {
-            let (v, t) = match sys {
-                System::Us => (29_000.0, "Es = 29,000 ksi (ACI 318-19 20.2.2.2)"),
-                System::Si => (200_000.0, "Es = 200,000 MPa (ACI 318M-19 20.2.2.2)"),
-            };
-            defaults.push(Default { key: "bars.es".into(), text: t.into() });
+            let (v, t) = cx.basis.bar_modulus();
+            defaults.push(Default { key: "bars.es".into(), text: t });
             v
         }
     };
