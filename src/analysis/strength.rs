@@ -255,6 +255,7 @@ pub(super) struct Strength {
     pub bars: Vec<LayerOut>,
 }
 
+/// The recorded solution: the block, each steel layer, the totals and Mn.
 #[allow(clippy::too_many_arguments)]
 fn record_solution(
     p: &Prepared,
@@ -266,9 +267,34 @@ fn record_solution(
     closure: f64,
     trials: usize,
 ) -> Strength {
-    let m = p.m;
-    // the sketch's steel positions are drawn only in the package (traced runs)
-    let sketch = tr.on();
+    let cc = record_block(p, li, model, st, tr, closure, trials);
+    let mut strands = Vec::new();
+    let mut bars = Vec::new();
+    let mut forces = Vec::new();
+    for (j, stl) in model.steel.iter().enumerate() {
+        let (out, total) = record_layer(p, li, model, st, at, j, stl, tr);
+        forces.extend(total);
+        if out.kind == "strand" { strands.push(out) } else { bars.push(out) }
+    }
+    let mn_shown = record_totals(p, li, model, st, &forces, cc, closure, tr);
+    Strength { mn_shown, strands, bars }
+}
+
+/// A steel layer's force at nominal strength, for the sums: its kind, number within
+/// its kind, force (shown units) and depth.
+type LayerForce = (&'static str, usize, f64, f64);
+
+/// The neutral axis, the block, the concrete force of each part and the depth of the
+/// compression resultant; returns the total concrete force (shown units).
+fn record_block(
+    p: &Prepared,
+    li: usize,
+    model: &Model,
+    st: &State,
+    tr: &mut Trace,
+    closure: f64,
+    trials: usize,
+) -> f64 {
     let cv = p.cv;
     let tag = |k: &str| format!("L{}.{k}", li + 1);
     let c = st.c;
@@ -344,194 +370,222 @@ fn record_solution(
             .note("centroid of the block, from the clipped outline's first moment")
     });
 
-    // steel layers
-    let mut strands = Vec::new();
-    let mut bars = Vec::new();
-    let mut t_vals = Vec::new();
-    let mut d_vals = Vec::new();
+    cc
+}
+
+/// One steel layer at nominal strength: its strains, stress and force, recorded; its
+/// row of the layer table; and its force for the sums where it carries any.
+#[allow(clippy::too_many_arguments)]
+fn record_layer(
+    p: &Prepared,
+    li: usize,
+    model: &Model,
+    st: &State,
+    at: &[StrandAt],
+    j: usize,
+    stl: &Steel,
+    tr: &mut Trace,
+) -> (LayerOut, Option<LayerForce>) {
+    let m = p.m;
+    // the sketch's steel positions are drawn only in the package (traced runs)
+    let sketch = tr.on();
+    let cv = p.cv;
+    let tag = |k: &str| format!("L{}.{k}", li + 1);
+    let (c, a) = (st.c, st.a);
     let ns = m.strands.len();
-    for (j, stl) in model.steel.iter().enumerate() {
-        let is_strand = j < ns;
-        let k = if is_strand { j + 1 } else { j - ns + 1 };
-        let eps3 = stl.eps3(c, model.ecu);
-        let eps = stl.pre + eps3;
-        let f = stl.stress_at(eps);
-        let inside = stl.inside(a);
-        let force = stl.force(c, a, model.ecu) * cv.kf;
-        let (kind, subs) = if is_strand { ("strand", "\"p\"") } else { ("bar", "\"s\"") };
-        let active = stl.area > 0.0;
-        if active {
-            let pid = if is_strand { "strand" } else { "bar" };
+    let mut total = None;
+    let is_strand = j < ns;
+    let k = if is_strand { j + 1 } else { j - ns + 1 };
+    let eps3 = stl.eps3(c, model.ecu);
+    let eps = stl.pre + eps3;
+    let f = stl.stress_at(eps);
+    let inside = stl.inside(a);
+    let force = stl.force(c, a, model.ecu) * cv.kf;
+    let (kind, subs) = if is_strand { ("strand", "\"p\"") } else { ("bar", "\"s\"") };
+    let active = stl.area > 0.0;
+    if active {
+        let pid = if is_strand { "strand" } else { "bar" };
+        tr.rec(|| {
+            Step::new(
+                "strength",
+                tag(&format!("strength.{pid}.eps3.{k}")),
+                format!("Flexural strain, {kind} layer {k}"),
+                sym_k("epsilon", if is_strand { "3" } else { "s" }, if is_strand { "eps3" } else { "eps_s" }, k),
+            )
+            .formula(div(mul(vec![n(model.ecu), sub(v(0), v(1))]), v(1)))
+            .input(sym_k("d", subs, "d", k), stl.d, Unit::Length)
+            .input(sy("c", "c"), c, Unit::Length)
+            .result(eps3, Unit::Strain)
+            .clause(p.basis.cite(Clause::StrainCompatibility))
+        });
+        if is_strand {
+            let i = j;
             tr.rec(|| {
                 Step::new(
                     "strength",
-                    tag(&format!("strength.{pid}.eps3.{k}")),
-                    format!("Flexural strain, {kind} layer {k}"),
-                    sym_k("epsilon", if is_strand { "3" } else { "s" }, if is_strand { "eps3" } else { "eps_s" }, k),
+                    tag(&format!("strength.strand.eps.{k}")),
+                    format!("Total strand strain, layer {k}"),
+                    sym_k("epsilon", "\"ps\"", "eps_ps", k),
                 )
-                .formula(div(mul(vec![n(model.ecu), sub(v(0), v(1))]), v(1)))
-                .input(sym_k("d", subs, "d", k), stl.d, Unit::Length)
-                .input(sy("c", "c"), c, Unit::Length)
-                .result(eps3, Unit::Strain)
-                .clause(p.basis.cite(Clause::StrainCompatibility))
+                .formula(add(vec![v(0), v(1), v(2)]))
+                .input(sym_k("epsilon", "1", "eps1", k), at[i].eps1, Unit::Strain)
+                .input(sym_k("epsilon", "2", "eps2", k), at[i].eps2, Unit::Strain)
+                .input(sym_k("epsilon", "3", "eps3", k), eps3, Unit::Strain)
+                .result(eps, Unit::Strain)
             });
-            if is_strand {
-                let i = j;
-                tr.rec(|| {
-                    Step::new(
-                        "strength",
-                        tag(&format!("strength.strand.eps.{k}")),
-                        format!("Total strand strain, layer {k}"),
-                        sym_k("epsilon", "\"ps\"", "eps_ps", k),
-                    )
-                    .formula(add(vec![v(0), v(1), v(2)]))
-                    .input(sym_k("epsilon", "1", "eps1", k), at[i].eps1, Unit::Strain)
-                    .input(sym_k("epsilon", "2", "eps2", k), at[i].eps2, Unit::Strain)
-                    .input(sym_k("epsilon", "3", "eps3", k), eps3, Unit::Strain)
-                    .result(eps, Unit::Strain)
-                });
-                let curve = p.curves[i];
-                let raw = match stl.law {
-                    Law::Strand(cu) => cu.stress(eps),
-                    Law::Bar(b) => b.stress(eps),
-                };
-                tr.rec(|| {
-                    let stp = Step::new(
-                        "strength",
-                        tag(&format!("strength.strand.f.{k}")),
-                        format!("Strand stress, layer {k}"),
-                        sym_k("f", "\"ps\"", "fps", k),
-                    );
-                    if raw > stl.cap {
-                        stp.formula(min(vec![curve.piece(eps).formula, v(1)]))
-                            .input(sym_k("epsilon", "\"ps\"", "eps_ps", k), eps, Unit::Strain)
-                            .input(sym_k("f", "\"px\"", "fpx", k), stl.cap, Unit::Stress)
-                            .result(f, Unit::Stress)
-                            .clause(p.basis.cite(Clause::StrandStressLimit))
-                            .note(format!(
-                                "{}; limited to fpx, the strand is not fully developed here",
-                                curve.model.name()
-                            ))
-                    } else {
-                        let pc = curve.piece(eps);
-                        stp.formula(pc.formula)
-                            .input(sym_k("epsilon", "\"ps\"", "eps_ps", k), eps, Unit::Strain)
-                            .result(f, Unit::Stress)
-                            .note(format!("{}, {}", curve.model.name(), pc.note))
-                    }
-                });
-            } else {
-                let b = match stl.law {
-                    Law::Bar(b) => b,
-                    Law::Strand(_) => Bar { fy: 0.0, es: 0.0, hardening: 0.0, fu: 0.0 },
-                };
-                tr.rec(|| {
-                    let stp = Step::new(
-                        "strength",
-                        tag(&format!("strength.bar.f.{k}")),
-                        format!("Bar stress, layer {k}"),
-                        sym_k("f", "\"s\"", "fs", k),
-                    );
-                    if (b.es * eps).abs() >= b.fy {
-                        stp.formula(if eps >= 0.0 { v(0) } else { neg(v(0)) })
-                            .input(sy("f_y", "fy"), b.fy, Unit::Stress)
-                            .result(f, Unit::Stress)
-                            .note(if eps >= 0.0 { "yielded in tension" } else { "yielded in compression" })
-                    } else {
-                        stp.formula(mul(vec![v(0), v(1)]))
-                            .input(sy("E_s", "Es"), b.es, Unit::Stress)
-                            .input(sym_k("epsilon", "s", "eps_s", k), eps, Unit::Strain)
-                            .result(f, Unit::Stress)
-                            .note("elastic")
-                    }
-                });
-            }
+            let curve = p.curves[i];
+            let raw = match stl.law {
+                Law::Strand(cu) => cu.stress(eps),
+                Law::Bar(b) => b.stress(eps),
+            };
             tr.rec(|| {
-                let fsym = if is_strand { sym_k("f", "\"ps\"", "fps", k) } else { sym_k("f", "\"s\"", "fs", k) };
-                let asym = if is_strand { sym_k("A", "\"ps\"", "Aps", k) } else { sym_k("A", "\"s\"", "As", k) };
                 let stp = Step::new(
                     "strength",
-                    tag(&format!("strength.{pid}.T.{k}")),
-                    format!("Force, {kind} layer {k}"),
-                    sym_k("T", subs, "T", k),
+                    tag(&format!("strength.strand.f.{k}")),
+                    format!("Strand stress, layer {k}"),
+                    sym_k("f", "\"ps\"", "fps", k),
                 );
-                if inside > 0.0 {
-                    stp.formula(per(mul(vec![v(0), add(vec![v(1), mul(vec![v(2), v(3)])])]), cv.f_div))
-                        .input(asym, stl.area, Unit::Area)
-                        .input(fsym, f, Unit::Stress)
-                        .input(sy("0.85 f'_c", "0.85f'c"), stl.displaced, Unit::Stress)
-                        .input(sy("chi", "share in block"), inside, Unit::Ratio)
-                        .result(force, Unit::Force)
-                        .note("inside the stress block: the concrete it displaces is deducted; χ is the share of the layer within the block")
+                if raw > stl.cap {
+                    stp.formula(min(vec![curve.piece(eps).formula, v(1)]))
+                        .input(sym_k("epsilon", "\"ps\"", "eps_ps", k), eps, Unit::Strain)
+                        .input(sym_k("f", "\"px\"", "fpx", k), stl.cap, Unit::Stress)
+                        .result(f, Unit::Stress)
+                        .clause(p.basis.cite(Clause::StrandStressLimit))
+                        .note(format!("{}; limited to fpx, the strand is not fully developed here", curve.model.name()))
                 } else {
-                    stp.formula(per(mul(vec![v(0), v(1)]), cv.f_div))
-                        .input(asym, stl.area, Unit::Area)
-                        .input(fsym, f, Unit::Stress)
-                        .result(force, Unit::Force)
+                    let pc = curve.piece(eps);
+                    stp.formula(pc.formula)
+                        .input(sym_k("epsilon", "\"ps\"", "eps_ps", k), eps, Unit::Strain)
+                        .result(f, Unit::Stress)
+                        .note(format!("{}, {}", curve.model.name(), pc.note))
                 }
             });
-            t_vals.push((kind, k, force));
-            d_vals.push(stl.d);
-        }
-        let (eps1, eps2, fse, label, count, unit_area, diameter, points) = if is_strand {
-            let s_ = &m.strands[j];
-            let y = p.top - stl.d;
-            (
-                Some(at[j].eps1),
-                Some(at[j].eps2),
-                Some(at[j].fse),
-                strand_label(s_, p.sys),
-                s_.count,
-                s_.area,
-                s_.diameter,
-                if sketch { layer_points(&m.region, y, s_.count, s_.diameter) } else { Vec::new() },
-            )
         } else {
-            let b = &m.bars[j - ns];
-            let label = match b.size {
-                Some(sz) => format!("{} {}", b.count, sz),
-                None => format!("{} × {} {}", b.count, crate::trace::show(b.diameter), p.sys.names().length),
+            let b = match stl.law {
+                Law::Bar(b) => b,
+                Law::Strand(_) => Bar { fy: 0.0, es: 0.0, hardening: 0.0, fu: 0.0 },
             };
-            let y = p.top - stl.d;
-            (
-                None,
-                None,
-                None,
-                label,
-                b.count,
-                b.area,
-                b.diameter,
-                if sketch { layer_points(&m.region, y, b.count, b.diameter) } else { Vec::new() },
-            )
-        };
-        let out = LayerOut {
-            kind,
-            index: k,
-            label,
-            count,
-            unit_area,
-            area: if is_strand { m.strands[j].total_area() } else { stl.area },
-            depth: stl.d,
-            eps1,
-            eps2,
-            eps3,
-            eps,
-            stress: if active { f } else { 0.0 },
-            force,
-            fse,
-            cap: if stl.cap.is_finite() { Some(stl.cap) } else { None },
-            in_block: inside,
-            active,
-            points,
-            diameter,
-        };
-        if is_strand { strands.push(out) } else { bars.push(out) }
+            tr.rec(|| {
+                let stp = Step::new(
+                    "strength",
+                    tag(&format!("strength.bar.f.{k}")),
+                    format!("Bar stress, layer {k}"),
+                    sym_k("f", "\"s\"", "fs", k),
+                );
+                if (b.es * eps).abs() >= b.fy {
+                    stp.formula(if eps >= 0.0 { v(0) } else { neg(v(0)) })
+                        .input(sy("f_y", "fy"), b.fy, Unit::Stress)
+                        .result(f, Unit::Stress)
+                        .note(if eps >= 0.0 { "yielded in tension" } else { "yielded in compression" })
+                } else {
+                    stp.formula(mul(vec![v(0), v(1)]))
+                        .input(sy("E_s", "Es"), b.es, Unit::Stress)
+                        .input(sym_k("epsilon", "s", "eps_s", k), eps, Unit::Strain)
+                        .result(f, Unit::Stress)
+                        .note("elastic")
+                }
+            });
+        }
+        tr.rec(|| {
+            let fsym = if is_strand { sym_k("f", "\"ps\"", "fps", k) } else { sym_k("f", "\"s\"", "fs", k) };
+            let asym = if is_strand { sym_k("A", "\"ps\"", "Aps", k) } else { sym_k("A", "\"s\"", "As", k) };
+            let stp = Step::new(
+                "strength",
+                tag(&format!("strength.{pid}.T.{k}")),
+                format!("Force, {kind} layer {k}"),
+                sym_k("T", subs, "T", k),
+            );
+            if inside > 0.0 {
+                stp.formula(per(mul(vec![v(0), add(vec![v(1), mul(vec![v(2), v(3)])])]), cv.f_div))
+                    .input(asym, stl.area, Unit::Area)
+                    .input(fsym, f, Unit::Stress)
+                    .input(sy("0.85 f'_c", "0.85f'c"), stl.displaced, Unit::Stress)
+                    .input(sy("chi", "share in block"), inside, Unit::Ratio)
+                    .result(force, Unit::Force)
+                    .note("inside the stress block: the concrete it displaces is deducted; χ is the share of the layer within the block")
+            } else {
+                stp.formula(per(mul(vec![v(0), v(1)]), cv.f_div))
+                    .input(asym, stl.area, Unit::Area)
+                    .input(fsym, f, Unit::Stress)
+                    .result(force, Unit::Force)
+            }
+        });
+        total = Some((kind, k, force, stl.d));
     }
-    let t_sum: f64 = t_vals.iter().map(|t| t.2).sum();
+    let (eps1, eps2, fse, label, count, unit_area, diameter, points) = if is_strand {
+        let s_ = &m.strands[j];
+        let y = p.top - stl.d;
+        (
+            Some(at[j].eps1),
+            Some(at[j].eps2),
+            Some(at[j].fse),
+            strand_label(s_, p.sys),
+            s_.count,
+            s_.area,
+            s_.diameter,
+            if sketch { layer_points(&m.region, y, s_.count, s_.diameter) } else { Vec::new() },
+        )
+    } else {
+        let b = &m.bars[j - ns];
+        let label = match b.size {
+            Some(sz) => format!("{} {}", b.count, sz),
+            None => format!("{} × {} {}", b.count, crate::trace::show(b.diameter), p.sys.names().length),
+        };
+        let y = p.top - stl.d;
+        (
+            None,
+            None,
+            None,
+            label,
+            b.count,
+            b.area,
+            b.diameter,
+            if sketch { layer_points(&m.region, y, b.count, b.diameter) } else { Vec::new() },
+        )
+    };
+    let out = LayerOut {
+        kind,
+        index: k,
+        label,
+        count,
+        unit_area,
+        area: if is_strand { m.strands[j].total_area() } else { stl.area },
+        depth: stl.d,
+        eps1,
+        eps2,
+        eps3,
+        eps,
+        stress: if active { f } else { 0.0 },
+        force,
+        fse,
+        cap: if stl.cap.is_finite() { Some(stl.cap) } else { None },
+        in_block: inside,
+        active,
+        points,
+        diameter,
+    };
+    (out, total)
+}
+
+/// The sum of the steel forces, the equilibrium residual and Mn (shown units).
+#[allow(clippy::too_many_arguments)]
+fn record_totals(
+    p: &Prepared,
+    li: usize,
+    model: &Model,
+    st: &State,
+    forces: &[LayerForce],
+    cc: f64,
+    closure: f64,
+    tr: &mut Trace,
+) -> f64 {
+    let cv = p.cv;
+    let tag = |k: &str| format!("L{}.{k}", li + 1);
+    let t_sum: f64 = forces.iter().map(|t| t.2).sum();
     tr.rec(|| {
         let mut stp = Step::new("strength", tag("strength.T"), "Sum of steel forces", sy("Sigma T", "ΣT"));
         let mut terms = Vec::new();
-        for (i, (kind, k, f)) in t_vals.iter().enumerate() {
+        for (i, (kind, k, f, _)) in forces.iter().enumerate() {
             terms.push(v(i));
             stp = stp.input(sym_k("T", if *kind == "strand" { "\"p\"" } else { "\"s\"" }, "T", *k), *f, Unit::Force);
         }
@@ -549,13 +603,13 @@ fn record_solution(
     tr.rec(|| {
         let mut stp = Step::new("strength", tag("strength.Mn"), "Nominal flexural strength", sy("M_n", "Mn"));
         let mut terms = Vec::new();
-        let nt = t_vals.len();
-        for (i, (kind, k, f)) in t_vals.iter().enumerate() {
+        let nt = forces.len();
+        for (i, (kind, k, f, d)) in forces.iter().enumerate() {
             terms.push(mul(vec![v(2 * i), sub(v(2 * i + 1), v(2 * nt))]));
             let sub_s = if *kind == "strand" { "\"p\"" } else { "\"s\"" };
             stp = stp.input(sym_k("T", sub_s, "T", *k), *f, Unit::Force).input(
                 sym_k("d", sub_s, "d", *k),
-                d_vals[i],
+                *d,
                 Unit::Length,
             );
         }
@@ -564,5 +618,5 @@ fn record_solution(
             .result(mn_shown, Unit::Moment)
             .note("moments of the steel forces about the compression resultant")
     });
-    Strength { mn_shown, strands, bars }
+    mn_shown
 }
