@@ -20,148 +20,10 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
         None => None,
     };
 
-    let concrete = match &m.concrete {
-        Some(c) => {
-            cx.enter(Seg::Key("concrete"));
-            let v = concrete_of(
-                cx,
-                ConcreteKeys {
-                    fc: &c.fc,
-                    ec: &c.ec,
-                    density: &c.density,
-                    lambda: c.lambda,
-                    fr: &c.fr,
-                    curve: &c.curve,
-                },
-                &mut defaults,
-                "concrete.",
-            );
-            cx.leave();
-            v
-        }
-        None => {
-            cx.problem(
-                "concrete",
-                "the [member.concrete] table is missing",
-                Some("a table with fc (and optionally ec, density, lambda, fr)".to_string()),
-            );
-            None
-        }
-    };
-
-    let (shape, region) = match &m.section {
-        Some(s) => {
-            cx.enter(Seg::Key("section"));
-            let built = shape(cx, s).and_then(|sh| match sh.build() {
-                Ok(region) => Some((sh, region)),
-                Err(ShapeError { key, value, allowed }) => {
-                    cx.problem(key, format!("{key} = {} does not fit the shape", num(value)), Some(allowed));
-                    None
-                }
-            });
-            cx.leave();
-            match built {
-                Some(b) => (Some(b.0), Some(b.1)),
-                None => (None, None),
-            }
-        }
-        None => {
-            cx.problem(
-                "section",
-                "the [member.section] table is missing",
-                Some(format!("a table with shape = {SHAPES} and its dimensions")),
-            );
-            (None, None)
-        }
-    };
-
-    let kind = match m.kind.as_deref() {
-        None => {
-            if shape.as_ref().is_some_and(|s| s.is_slab()) {
-                Kind::OneWaySlab
-            } else {
-                Kind::Beam
-            }
-        }
-        Some("beam") => Kind::Beam,
-        Some("slab") => Kind::OneWaySlab,
-        Some(other) => {
-            cx.problem(
-                "kind",
-                format!("kind = {other:?} is not a member kind"),
-                Some("\"beam\" or \"slab\" (one-way slab)".to_string()),
-            );
-            Kind::Beam
-        }
-    };
-
-    let topping = match (&m.topping, &region) {
-        (Some(t), Some(region)) => {
-            cx.enter(Seg::Key("topping"));
-            let thickness = cx.ranged("thickness", &t.thickness, Dim::Length, 0.0, r.dim_max / 10.0, true);
-            let thickness = cx.required("thickness", thickness, "the topping thickness");
-            let (lo, hi) = region.top_extent();
-            let flat = hi - lo > 0.0 && lo.is_finite() && hi.is_finite();
-            let width = match &t.width {
-                Some(_) => cx.dim_len("width", &t.width),
-                None if flat => Some(hi - lo),
-                None => {
-                    cx.problem(
-                        "width",
-                        "width is missing and the top of the precast unit is not flat",
-                        Some("the topping width".to_string()),
-                    );
-                    None
-                }
-            };
-            let block = match t.block.as_deref() {
-                None => {
-                    defaults.push(Default {
-                        key: "topping.block".into(),
-                        text: "where the stress block is deeper than the topping, the topping's f'c and β1 are used over the whole block".into(),
-                    });
-                    Some(BlockMode::Topping)
-                }
-                Some("topping") => Some(BlockMode::Topping),
-                Some("two_part") => Some(BlockMode::TwoPart),
-                Some(other) => {
-                    cx.problem(
-                        "block",
-                        format!("block = {other:?} is not a stress-block option"),
-                        Some("\"topping\" or \"two_part\"".to_string()),
-                    );
-                    None
-                }
-            };
-            let c = concrete_of(
-                cx,
-                ConcreteKeys {
-                    fc: &t.fc,
-                    ec: &t.ec,
-                    density: &t.density,
-                    lambda: t.lambda,
-                    fr: &None,
-                    curve: &t.curve,
-                },
-                &mut defaults,
-                "topping.",
-            );
-            cx.leave();
-            match (thickness, width, block, c) {
-                (Some(thickness), Some(width), Some(block), Some(concrete)) => Some(Topping {
-                    thickness,
-                    width,
-                    x_center: if flat { (lo + hi) / 2.0 } else { 0.0 },
-                    concrete,
-                    block,
-                }),
-                _ => return None,
-            }
-        }
-        (Some(_), None) => return None,
-        (None, _) => None,
-    };
-
+    let concrete = precast_concrete(cx, m, &mut defaults);
+    let (shape, region) = section(cx, m);
+    let kind = kind(cx, m, shape.as_ref());
+    let topping = topping(cx, m, region.as_ref(), &mut defaults)?;
     // moments
     let mu = match &m.mu {
         Some(_) => Some(cx.ranged("mu", &m.mu, Dim::Moment, 0.0, r.moment_max, true)?),
@@ -302,6 +164,204 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     }
 
     let region = region?;
+    let (strands, bars) = steel(cx, m, &region, length, &mut defaults)?;
+    let curve = curve_options(cx, m)?;
+    // dedup defaults (several layers may take the same one)
+    let mut seen: Vec<Default> = Vec::new();
+    for d in defaults {
+        if !seen.contains(&d) {
+            seen.push(d);
+        }
+    }
+    Some(Member {
+        id: id?,
+        description,
+        kind,
+        length,
+        mnc,
+        locations,
+        concrete: concrete?,
+        shape: shape?,
+        region,
+        topping,
+        strands,
+        bars,
+        curve,
+        defaults: seen,
+    })
+}
+
+/// The precast concrete.
+fn precast_concrete(cx: &mut Ctx, m: &raw::Member, defaults: &mut Vec<Default>) -> Option<Concrete> {
+    match &m.concrete {
+        Some(c) => {
+            cx.enter(Seg::Key("concrete"));
+            let v = concrete_of(
+                cx,
+                ConcreteKeys {
+                    fc: &c.fc,
+                    ec: &c.ec,
+                    density: &c.density,
+                    lambda: c.lambda,
+                    fr: &c.fr,
+                    curve: &c.curve,
+                },
+                defaults,
+                "concrete.",
+            );
+            cx.leave();
+            v
+        }
+        None => {
+            cx.problem(
+                "concrete",
+                "the [member.concrete] table is missing",
+                Some("a table with fc (and optionally ec, density, lambda, fr)".to_string()),
+            );
+            None
+        }
+    }
+}
+
+/// The section: its shape and the region built from it.
+fn section(cx: &mut Ctx, m: &raw::Member) -> (Option<Shape>, Option<Region>) {
+    match &m.section {
+        Some(s) => {
+            cx.enter(Seg::Key("section"));
+            let built = shape(cx, s).and_then(|sh| match sh.build() {
+                Ok(region) => Some((sh, region)),
+                Err(ShapeError { key, value, allowed }) => {
+                    cx.problem(key, format!("{key} = {} does not fit the shape", num(value)), Some(allowed));
+                    None
+                }
+            });
+            cx.leave();
+            match built {
+                Some(b) => (Some(b.0), Some(b.1)),
+                None => (None, None),
+            }
+        }
+        None => {
+            cx.problem(
+                "section",
+                "the [member.section] table is missing",
+                Some(format!("a table with shape = {SHAPES} and its dimensions")),
+            );
+            (None, None)
+        }
+    }
+}
+
+/// The member kind for the code's chapters: given, or a one-way slab for a plank.
+fn kind(cx: &mut Ctx, m: &raw::Member, shape: Option<&Shape>) -> Kind {
+    match m.kind.as_deref() {
+        None => {
+            if shape.is_some_and(|s| s.is_slab()) {
+                Kind::OneWaySlab
+            } else {
+                Kind::Beam
+            }
+        }
+        Some("beam") => Kind::Beam,
+        Some("slab") => Kind::OneWaySlab,
+        Some(other) => {
+            cx.problem(
+                "kind",
+                format!("kind = {other:?} is not a member kind"),
+                Some("\"beam\" or \"slab\" (one-way slab)".to_string()),
+            );
+            Kind::Beam
+        }
+    }
+}
+
+/// The cast-in-place topping, if any (`None`: refused).
+fn topping(
+    cx: &mut Ctx,
+    m: &raw::Member,
+    region: Option<&Region>,
+    defaults: &mut Vec<Default>,
+) -> Option<Option<Topping>> {
+    let r = ranges(cx.sys);
+    let topping = match (&m.topping, region) {
+        (Some(t), Some(region)) => {
+            cx.enter(Seg::Key("topping"));
+            let thickness = cx.ranged("thickness", &t.thickness, Dim::Length, 0.0, r.dim_max / 10.0, true);
+            let thickness = cx.required("thickness", thickness, "the topping thickness");
+            let (lo, hi) = region.top_extent();
+            let flat = hi - lo > 0.0 && lo.is_finite() && hi.is_finite();
+            let width = match &t.width {
+                Some(_) => cx.dim_len("width", &t.width),
+                None if flat => Some(hi - lo),
+                None => {
+                    cx.problem(
+                        "width",
+                        "width is missing and the top of the precast unit is not flat",
+                        Some("the topping width".to_string()),
+                    );
+                    None
+                }
+            };
+            let block = match t.block.as_deref() {
+                None => {
+                    defaults.push(Default {
+                        key: "topping.block".into(),
+                        text: "where the stress block is deeper than the topping, the topping's f'c and β1 are used over the whole block".into(),
+                    });
+                    Some(BlockMode::Topping)
+                }
+                Some("topping") => Some(BlockMode::Topping),
+                Some("two_part") => Some(BlockMode::TwoPart),
+                Some(other) => {
+                    cx.problem(
+                        "block",
+                        format!("block = {other:?} is not a stress-block option"),
+                        Some("\"topping\" or \"two_part\"".to_string()),
+                    );
+                    None
+                }
+            };
+            let c = concrete_of(
+                cx,
+                ConcreteKeys {
+                    fc: &t.fc,
+                    ec: &t.ec,
+                    density: &t.density,
+                    lambda: t.lambda,
+                    fr: &None,
+                    curve: &t.curve,
+                },
+                defaults,
+                "topping.",
+            );
+            cx.leave();
+            match (thickness, width, block, c) {
+                (Some(thickness), Some(width), Some(block), Some(concrete)) => Some(Topping {
+                    thickness,
+                    width,
+                    x_center: if flat { (lo + hi) / 2.0 } else { 0.0 },
+                    concrete,
+                    block,
+                }),
+                _ => return None,
+            }
+        }
+        (Some(_), None) => return None,
+        (None, _) => None,
+    };
+
+    Some(topping)
+}
+
+/// The strand and bar layers, each placed in the region (`None`: too many layers).
+#[allow(clippy::type_complexity)]
+fn steel(
+    cx: &mut Ctx,
+    m: &raw::Member,
+    region: &Region,
+    length: Option<f64>,
+    defaults: &mut Vec<Default>,
+) -> Option<(Vec<StrandLayer>, Vec<BarLayer>)> {
     if m.strands.is_empty() {
         cx.problem(
             "strands",
@@ -321,7 +381,7 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     for (k, s) in m.strands.iter().enumerate() {
         cx.enter(Seg::Key("strands"));
         cx.enter(Seg::Idx(k));
-        if let Some(layer) = strand_layer(cx, s, &region, length, &mut defaults) {
+        if let Some(layer) = strand_layer(cx, s, region, length, defaults) {
             strands.push(layer);
         }
         cx.leave();
@@ -334,12 +394,17 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     for (k, b) in m.bars.iter().enumerate() {
         cx.enter(Seg::Key("bars"));
         cx.enter(Seg::Idx(k));
-        if let Some(layer) = bar_layer(cx, b, &region, &mut defaults) {
+        if let Some(layer) = bar_layer(cx, b, region, defaults) {
             bars.push(layer);
         }
         cx.leave();
         cx.leave();
     }
+    Some((strands, bars))
+}
+
+/// The options of the moment-curvature analysis.
+fn curve_options(cx: &mut Ctx, m: &raw::Member) -> Option<CurveOptions> {
     let curve = match &m.curve {
         Some(c) => {
             cx.enter(Seg::Key("curve"));
@@ -364,27 +429,5 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
             CurveOptions { crushing_strain: 0.003, rupture_strain: 0.035, points: 200, strips: 200, bar_hardening: 0.0 }
         }
     };
-    // dedup defaults (several layers may take the same one)
-    let mut seen: Vec<Default> = Vec::new();
-    for d in defaults {
-        if !seen.contains(&d) {
-            seen.push(d);
-        }
-    }
-    Some(Member {
-        id: id?,
-        description,
-        kind,
-        length,
-        mnc,
-        locations,
-        concrete: concrete?,
-        shape: shape?,
-        region,
-        topping,
-        strands,
-        bars,
-        curve,
-        defaults: seen,
-    })
+    Some(curve)
 }
