@@ -83,8 +83,9 @@ fn benches(c: &mut Criterion) {
     c.bench_function("clip: double tee, cut in the stems", |b| b.iter(|| dreg.above(black_box(dtop - 10.0))));
 
     let dm = &dt.members[0];
+    let site = analysis::analyze_member(dm, dt.basis(), false).unwrap().sites.remove(2);
     c.bench_function("curve: 200 points, topped double tee", |b| {
-        b.iter(|| analysis::curve::moment_curvature(black_box(dm), dt.basis(), 2).unwrap())
+        b.iter(|| analysis::curve::moment_curvature(black_box(dm), dt.basis(), &site, 2).unwrap())
     });
 
     // a 10-member package: the double tees repeated

@@ -448,8 +448,8 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             let m = &pkg.members[mi];
             let r = analysis::analyze_member(m, pkg.basis(), false)?;
             let li = match &location {
-                Some(name) => m.locations.iter().position(|l| &l.name == name).ok_or_else(|| {
-                    let names: Vec<&str> = m.locations.iter().map(|l| l.name.as_str()).collect();
+                Some(name) => r.locations.iter().position(|l| &l.name == name).ok_or_else(|| {
+                    let names: Vec<&str> = r.locations.iter().map(|l| l.name.as_str()).collect();
                     Error::Usage(format!(
                         "member {member} has no location {name:?}; its locations are {}",
                         names.join(", ")
@@ -457,7 +457,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 })?,
                 None => r.governing,
             };
-            let c = analysis::curve::moment_curvature(m, pkg.basis(), li)?;
+            let c = analysis::curve::moment_curvature(m, pkg.basis(), &r.sites[li], li)?;
             match format {
                 CurveFormat::Json => {
                     let v = present::curve_json(&pkg, &c, &r.locations[li]);

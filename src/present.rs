@@ -116,6 +116,47 @@ struct MemberJson<'a> {
     #[serde(flatten)]
     top: LocationJson<'a>,
     locations: Vec<LocationJson<'a>>,
+    /// Members with loads: every station along the span, in order of x.
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    stations: Vec<StationJson<'a>>,
+}
+
+#[derive(Serialize)]
+struct StationJson<'a> {
+    x: f64,
+    what: &'a [String],
+    mu: f64,
+    mnc: f64,
+    combination: &'a str,
+    phi: f64,
+    phi_mn: f64,
+    ratio: f64,
+    mcr: f64,
+    min_reinforcement_ok: bool,
+    status: Status,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    end_region: Option<crate::input::model::End>,
+    /// The name of its full derivation among `locations`, where it has one.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    derived_as: Option<&'a str>,
+}
+
+fn station_json<'a>(m: &'a MemberResult, s: &'a crate::analysis::StationRow) -> StationJson<'a> {
+    StationJson {
+        x: s.x,
+        what: &s.what,
+        mu: s.mu,
+        mnc: s.mnc,
+        combination: &s.combination,
+        phi: s.phi,
+        phi_mn: s.phi_mn,
+        ratio: s.ratio,
+        mcr: s.mcr,
+        min_reinforcement_ok: s.min_ok,
+        status: s.status,
+        end_region: s.end_region,
+        derived_as: s.derived.and_then(|i| m.locations.get(i)).map(|l| l.name.as_str()),
+    }
 }
 
 /// `check --json`: the contract of the design document.
@@ -160,6 +201,7 @@ fn member_json(m: &MemberResult) -> MemberJson<'_> {
             .collect(),
         top: location_json(m.governing(), true),
         locations: m.locations.iter().map(|l| location_json(l, false)).collect(),
+        stations: m.stations.iter().map(|s| station_json(m, s)).collect(),
     }
 }
 

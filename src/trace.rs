@@ -37,6 +37,12 @@ pub enum Unit {
     Demand,
     /// Per cent.
     Percent,
+    /// A force per length: klf or kN/m.
+    LineLoad,
+    /// A load per area: psf or kPa.
+    Pressure,
+    /// A density: pcf or kg/m³.
+    Density,
 }
 
 impl Unit {
@@ -61,6 +67,12 @@ impl Unit {
             (Unit::Curvature, Us) => "1/in",
             (Unit::Curvature, Si) => "1/mm",
             (Unit::Percent, _) => "%",
+            (Unit::LineLoad, Us) => "klf",
+            (Unit::LineLoad, Si) => "kN/m",
+            (Unit::Pressure, Us) => "psf",
+            (Unit::Pressure, Si) => "kPa",
+            (Unit::Density, Us) => "pcf",
+            (Unit::Density, Si) => "kg/m³",
             (Unit::Strain, _) | (Unit::Ratio, _) | (Unit::Demand, _) => "",
         }
     }

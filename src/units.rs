@@ -36,6 +36,8 @@ pub enum Dim {
     Force,
     Moment,
     Density,
+    /// A force per length (a line load): kip/in or N/mm coherent, klf or kN/m shown.
+    LineLoad,
 }
 
 impl Dim {
@@ -47,6 +49,7 @@ impl Dim {
             Dim::Force => "a force",
             Dim::Moment => "a moment",
             Dim::Density => "a density",
+            Dim::LineLoad => "a line load",
         }
     }
 }
@@ -64,6 +67,8 @@ const IN_MM: f64 = 25.4;
 const KIP_N: f64 = 4_448.221_615_260_5;
 const KSI_MPA: f64 = 6.894_757_293_168_361;
 const PCF_KGM3: f64 = 16.018_463_373_960_14;
+/// One pound per square foot in ksi.
+const PSF_KSI: f64 = 1e-3 / 144.0;
 
 const UNITS: &[UnitDef] = &[
     UnitDef { names: &["in", "inch", "inches"], dim: Dim::Length, to_us: 1.0, to_si: IN_MM },
@@ -78,7 +83,23 @@ const UNITS: &[UnitDef] = &[
     UnitDef { names: &["psi"], dim: Dim::Stress, to_us: 1e-3, to_si: KSI_MPA * 1e-3 },
     UnitDef { names: &["mpa", "n/mm2", "n/mm^2", "n/mm²"], dim: Dim::Stress, to_us: 1.0 / KSI_MPA, to_si: 1.0 },
     UnitDef { names: &["gpa"], dim: Dim::Stress, to_us: 1000.0 / KSI_MPA, to_si: 1000.0 },
-    UnitDef { names: &["kpa"], dim: Dim::Stress, to_us: 1e-3 / KSI_MPA, to_si: 1e-3 },
+    UnitDef { names: &["kpa", "kn/m2", "kn/m^2", "kn/m²"], dim: Dim::Stress, to_us: 1e-3 / KSI_MPA, to_si: 1e-3 },
+    UnitDef {
+        names: &["psf", "lb/ft2", "lb/ft^2", "lb/ft²"],
+        dim: Dim::Stress,
+        to_us: PSF_KSI,
+        to_si: PSF_KSI * KSI_MPA,
+    },
+    UnitDef {
+        names: &["ksf", "kip/ft2", "kip/ft^2", "kip/ft²"],
+        dim: Dim::Stress,
+        to_us: 1e3 * PSF_KSI,
+        to_si: 1e3 * PSF_KSI * KSI_MPA,
+    },
+    UnitDef { names: &["klf", "kip/ft", "k/ft"], dim: Dim::LineLoad, to_us: 1.0 / 12.0, to_si: KIP_N / (12.0 * IN_MM) },
+    UnitDef { names: &["plf", "lb/ft"], dim: Dim::LineLoad, to_us: 1e-3 / 12.0, to_si: 1e-3 * KIP_N / (12.0 * IN_MM) },
+    UnitDef { names: &["kip/in", "k/in"], dim: Dim::LineLoad, to_us: 1.0, to_si: KIP_N / IN_MM },
+    UnitDef { names: &["kn/m", "n/mm"], dim: Dim::LineLoad, to_us: IN_MM / KIP_N, to_si: 1.0 },
     UnitDef { names: &["kip", "kips", "k"], dim: Dim::Force, to_us: 1.0, to_si: KIP_N },
     UnitDef { names: &["lb", "lbf", "lbs"], dim: Dim::Force, to_us: 1e-3, to_si: KIP_N * 1e-3 },
     UnitDef { names: &["kn"], dim: Dim::Force, to_us: 1000.0 / KIP_N, to_si: 1000.0 },
@@ -131,6 +152,7 @@ impl System {
     pub fn shown_to_coherent(self, dim: Dim) -> f64 {
         match (self, dim) {
             (System::Us, Dim::Moment) => 12.0,
+            (System::Us, Dim::LineLoad) => 1.0 / 12.0,
             (System::Si, Dim::Force) => 1e3,
             (System::Si, Dim::Moment) => 1e6,
             _ => 1.0,
@@ -183,6 +205,7 @@ impl System {
             Dim::Force => KIP_N,
             Dim::Moment => KIP_N * IN_MM,
             Dim::Density => PCF_KGM3,
+            Dim::LineLoad => KIP_N / IN_MM,
         };
         match self {
             System::Us => v * f,
@@ -245,5 +268,12 @@ mod tests {
         assert!(matches!(si.parse(Dim::Length, "12 kip"), Err(QuantityError::WrongDimension { .. })));
         assert!(matches!(si.parse(Dim::Length, "12 furlong"), Err(QuantityError::UnknownUnit(_))));
         assert!(matches!(si.parse(Dim::Length, "mm"), Err(QuantityError::NoNumber)));
+        // loads: 1 psf = 1/144 psi, 1 klf = 1/12 kip/in, 1 kN/m = 1 N/mm (common practice)
+        assert!((us.parse(Dim::Stress, "144 psf").unwrap() - 1e-3).abs() < 1e-15);
+        assert!((us.parse(Dim::LineLoad, "1.2 klf").unwrap() - 0.1).abs() < 1e-15);
+        assert_eq!(si.parse(Dim::LineLoad, "11.7 kN/m").unwrap(), 11.7);
+        assert!((si.parse(Dim::Stress, "2.4 kPa").unwrap() - 2.4e-3).abs() < 1e-15);
+        // 1 kip/ft = 14.5939 kN/m (common practice)
+        assert!((si.parse(Dim::LineLoad, "1 klf").unwrap() - 14.593_9).abs() < 1e-4);
     }
 }

@@ -14,7 +14,13 @@ fn with_locations(member: usize, xs: &[f64]) -> analysis::MemberResult {
     let m = &mut pkg.members[member];
     m.locations = xs
         .iter()
-        .map(|&x| Location { name: format!("x{x}"), x: Some(x), mu: 100.0 * 12.0, mnc: 0.0, mnc_scaled: false })
+        .map(|&x| Location {
+            name: format!("x{x}"),
+            x: Some(x),
+            mu: Some(100.0 * 12.0),
+            mnc: Some(0.0),
+            mnc_scaled: false,
+        })
         .collect();
     let a = analysis::analyze(&pkg, true).unwrap();
     a.members.into_iter().nth(member).unwrap()

@@ -69,9 +69,12 @@ pub(super) fn transfer(
             ))
         });
     }
-    let (fse_here, active, state) = if x_bond <= 0.0 && s.debonded_length > 0.0 {
+    // where the bond begins, within the rounding of x measured from the other end (a
+    // section at length - x must find what the section at x finds)
+    let at_start = x_bond <= 1e-9 * p.m.length.unwrap_or(0.0);
+    let (fse_here, active, state) = if at_start && s.debonded_length > 0.0 {
         (0.0, false, "debonded at this section")
-    } else if x_bond <= 0.0 {
+    } else if at_start {
         (0.0, false, "at the member end: not yet bonded")
     } else if x_bond < ltr {
         (s.fse * x_bond / ltr, true, "within the transfer length")
@@ -146,7 +149,8 @@ pub(super) fn development(
     let xb = dev.x_bond;
     let ltr = dev.transfer_length;
     let end = dev.end;
-    if xb >= ld {
+    // within the rounding of x measured from the other end, as in `transfer`
+    if xb >= ld - 1e-9 * p.m.length.unwrap_or(0.0) {
         dev.state = "fully developed";
         tr.rec(|| {
             Step::new(

@@ -17,9 +17,10 @@
 use super::prepare::{Prepared, prepare};
 use super::prestress::strands_at;
 use super::roots::{bracket, brent};
+use super::station::Station;
 use crate::basis::Basis;
 use crate::error::{Error, Result};
-use crate::input::model::{Location, Member};
+use crate::input::model::Member;
 use crate::material::concrete::{Curve as ConcreteCurve, Law};
 use crate::material::steel::Bar;
 use crate::material::strand::Curve as StrandCurve;
@@ -252,7 +253,7 @@ fn model_name(c: ConcreteCurve) -> &'static str {
     }
 }
 
-fn fail(m: &Member, loc: &Location, why: &str) -> Error {
+fn fail(m: &Member, loc: &Station, why: &str) -> Error {
     Error::Analysis {
         member: m.id.clone(),
         location: loc.name.clone(),
@@ -260,7 +261,7 @@ fn fail(m: &Member, loc: &Location, why: &str) -> Error {
     }
 }
 
-fn build(p: &Prepared, loc: &Location, li: usize) -> Fibres {
+fn build(p: &Prepared, loc: &Station, li: usize) -> Fibres {
     let m = p.m;
     let sys = p.sys;
     let mut tr = Trace::new(false);
@@ -316,16 +317,22 @@ fn build(p: &Prepared, loc: &Location, li: usize) -> Fibres {
     }
 }
 
-/// The moment-curvature curve of a member at one of its locations (by index).
-pub fn moment_curvature(m: &Member, basis: &'static dyn Basis, li: usize) -> Result<CurveResult> {
-    moment_curvature_points(m, basis, li, m.curve.points)
+/// The moment-curvature curve of a member at one of its checked sections (`li`: its
+/// index, for the step ids).
+pub fn moment_curvature(m: &Member, basis: &'static dyn Basis, loc: &Station, li: usize) -> Result<CurveResult> {
+    moment_curvature_points(m, basis, loc, li, m.curve.points)
 }
 
 /// The curve with `points` points after the march (at least 2). The march, and so the
 /// end and what ended the curve, do not depend on it; the peak is that of the points.
-pub fn moment_curvature_points(m: &Member, basis: &'static dyn Basis, li: usize, points: usize) -> Result<CurveResult> {
+pub fn moment_curvature_points(
+    m: &Member,
+    basis: &'static dyn Basis,
+    loc: &Station,
+    li: usize,
+    points: usize,
+) -> Result<CurveResult> {
     let sys = basis.units();
-    let loc = m.locations.get(li).ok_or_else(|| Error::Usage(format!("member {} has no location {}", m.id, li + 1)))?;
     let mut tr = Trace::new(false);
     let p = prepare(m, basis, &mut tr)?;
     let f = build(&p, loc, li);

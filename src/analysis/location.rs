@@ -7,16 +7,16 @@
 use super::prepare::Prepared;
 use super::prestress::{self, StrandAt};
 use super::solve::Trial;
+use super::station::Station;
 use super::strength::{self, layer_points, strand_label, zone_of};
 use super::{
     Approximate, LayerOut, LocationResult, PrestressAloneOut, checks, conclusion, is_slab, name_conversions, sy, sym_k,
 };
 use crate::basis::Clause;
 use crate::error::Result;
-use crate::input::model::Location;
 use crate::trace::{Step, Trace, Unit, f::*};
 
-pub(super) fn location(p: &Prepared, li: usize, loc: &Location, trace: bool) -> Result<LocationResult> {
+pub(super) fn location(p: &Prepared, li: usize, loc: &Station, trace: bool) -> Result<LocationResult> {
     let m = p.m;
     let sys = p.sys;
     let cv = p.cv;
@@ -200,7 +200,7 @@ pub(super) fn location(p: &Prepared, li: usize, loc: &Location, trace: bool) -> 
 fn no_tension_steel(
     p: &Prepared,
     li: usize,
-    loc: &Location,
+    loc: &Station,
     at: &[StrandAt],
     pe: f64,
     e: f64,

@@ -3,6 +3,10 @@
 //! file of its own, in the order a hand calculation goes:
 //!
 //! - `prepare`: materials and section properties, once per member;
+//! - `demand`: the moments along the span from the member's loads, factored by the
+//!   basis's combinations (members with loads);
+//! - `station`: the sections checked: the named locations and the stations along the
+//!   span;
 //! - `prestress`: at a location, each strand layer's place, bond and prestress;
 //! - `strength`: the strain-compatibility solution (development limits included), Mn;
 //! - `checks`: phi, phi Mn against Mu, the cracking moment and minimum strength, the
@@ -15,12 +19,14 @@
 pub mod checks;
 pub mod conclusion;
 pub mod curve;
+pub mod demand;
 mod location;
 mod prepare;
 mod prestress;
 pub mod results;
 pub mod roots;
 pub mod solve;
+pub mod station;
 mod strength;
 
 pub use results::*;
@@ -72,7 +78,7 @@ pub fn analyze(pkg: &Package, trace: bool) -> Result<Analysis> {
 pub fn analyze_full(pkg: &Package) -> Result<Analysis> {
     let mut a = analyze(pkg, true)?;
     a.members.par_iter_mut().zip(pkg.members.par_iter()).for_each(|(r, m)| {
-        match curve::moment_curvature(m, pkg.basis(), r.governing) {
+        match curve::moment_curvature(m, pkg.basis(), &r.sites[r.governing], r.governing) {
             Ok(c) => r.curve = Some(c),
             Err(e) => r.curve_error = Some(e.to_string()),
         }
@@ -84,6 +90,11 @@ pub fn analyze_full(pkg: &Package) -> Result<Analysis> {
 fn conversion_words(sys: System, divisor: f64, result: Unit) -> String {
     let same = |a: f64, b: f64| (a - b).abs() <= 1e-12 * b.abs();
     match sys {
+        System::Us if same(divisor, 144e3) && result == Unit::LineLoad => "/ 144 000: pcf × in² to klf".into(),
+        System::Us if same(divisor, 12e3) && result == Unit::LineLoad => "/ 12 000: psf × in to klf".into(),
+        System::Us if same(divisor, 144.0) && result == Unit::Moment => "/ 144: klf × in² to kip-ft".into(),
+        System::Si if same(divisor, 1e9) && result == Unit::LineLoad => "/ 10⁹: kg/m³ × m/s² × mm² to kN/m".into(),
+        System::Si if same(divisor, 1e3) && result == Unit::LineLoad => "/ 1000: kPa × mm to kN/m".into(),
         System::Us if same(divisor, 12.0) => "/ 12: kip-in to kip-ft".into(),
         System::Us if same(divisor, 1.0 / 12.0) => "× 12: kip-ft to kip-in".into(),
         System::Us if same(divisor, 1000.0) && result == Unit::Stress => "/ 1000: psi to ksi".into(),
@@ -120,31 +131,50 @@ fn sym_k(base: &'static str, sub: &'static str, plain: &'static str, k: usize) -
     Symbol::indexed(base, sub, plain, k)
 }
 
-/// One member under a design basis: its section once, then each check location.
+/// One member under a design basis: its section once, its demand from its loads, then
+/// each station along the span (a table row) and each section derived in full (the
+/// named locations, the governing station and the critical station of each end region).
 pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Result<MemberResult> {
     let sys = basis.units();
     let mut tr = Trace::new(trace);
     let p = prepare(m, basis, &mut tr)?;
-    let mut locations = Vec::with_capacity(m.locations.len());
-    for (li, loc) in m.locations.iter().enumerate() {
-        locations.push(location::location(&p, li, loc, trace)?);
+    let demand = demand::of_member(&p, m, &mut tr);
+    let mut sites = Vec::with_capacity(m.locations.len() + 3);
+    for l in &m.locations {
+        let site = station::Station::of_location(l, demand.as_ref()).ok_or_else(|| crate::error::Error::Analysis {
+            member: m.id.clone(),
+            location: l.name.clone(),
+            message: "no moment is given here and the member has no loads to derive it from".into(),
+        })?;
+        sites.push(site);
     }
-    // strand strained beyond its elongation: the section's moment-curvature curve says
-    // whether it ruptures before the demand is carried
-    for (li, l) in locations.iter_mut().enumerate() {
-        // only the end of the curve is asked for: two points (the march is the same)
-        let curve = l.rupture_risk.then(|| curve::moment_curvature_points(m, basis, li, 2));
-        let check = match &curve {
-            None => conclusion::RuptureCheck::NotAsked,
-            Some(Ok(c)) => conclusion::RuptureCheck::Curve(c),
-            Some(Err(e)) => conclusion::RuptureCheck::Failed(e.to_string()),
-        };
-        conclusion::settle(l, sys, check);
+    let stations = match &demand {
+        Some(d) => along_span(&p, d, &mut sites)?,
+        None => Vec::new(),
+    };
+    let mut locations = Vec::with_capacity(sites.len());
+    for (li, site) in sites.iter().enumerate() {
+        let mut r = location::location(&p, li, site, trace)?;
+        if let (Some(d), Some(at)) = (&demand, &site.moments) {
+            // the demand's steps first: where the moments come from
+            let mut dt = Trace::new(trace);
+            demand::record_at(d, &p, &format!("L{}", li + 1), at, &mut dt);
+            let mut steps = dt.steps;
+            name_conversions(sys, &mut steps);
+            steps.append(&mut r.trace);
+            r.trace = steps;
+        }
+        settle_with_curve(m, basis, site, li, &mut r);
+        locations.push(r);
     }
     let governing =
         locations.iter().enumerate().max_by(|a, b| a.1.ratio.total_cmp(&b.1.ratio)).map(|(i, _)| i).unwrap_or(0);
-    let pass = locations.iter().all(|l| l.pass);
-    let status = locations.iter().fold(conclusion::Status::Pass, |s, l| s.and(l.status));
+    let pass = locations.iter().all(|l| l.pass) && stations.iter().all(|s| s.pass);
+    let status = locations
+        .iter()
+        .map(|l| l.status)
+        .chain(stations.iter().map(|s| s.status))
+        .fold(conclusion::Status::Pass, |s, l| s.and(l));
     let geometry = Geometry {
         outline: m.region.outline.clone(),
         holes: m.region.holes.clone(),
@@ -180,7 +210,116 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
         trace: steps,
         curve: None,
         curve_error: None,
+        demand,
+        stations,
+        sites,
     })
+}
+
+/// Settles a section's words, asking its moment-curvature curve where strand is strained
+/// beyond its elongation (whether it ruptures before the demand is carried).
+fn settle_with_curve(
+    m: &Member,
+    basis: &'static dyn Basis,
+    site: &station::Station,
+    li: usize,
+    r: &mut LocationResult,
+) {
+    // only the end of the curve is asked for: two points (the march is the same)
+    let curve = r.rupture_risk.then(|| curve::moment_curvature_points(m, basis, site, li, 2));
+    let check = match &curve {
+        None => conclusion::RuptureCheck::NotAsked,
+        Some(Ok(c)) => conclusion::RuptureCheck::Curve(c),
+        Some(Err(e)) => conclusion::RuptureCheck::Failed(e.to_string()),
+    };
+    conclusion::settle(r, basis.units(), check);
+}
+
+/// Every station along the span, as a table row; the governing station and the critical
+/// station of each end region join `sites`, to be derived in full.
+fn along_span(p: &prepare::Prepared, d: &demand::Demand, sites: &mut Vec<station::Station>) -> Result<Vec<StationRow>> {
+    let m = p.m;
+    let basis = p.basis;
+    let km = p.cv.km;
+    let len = d.length;
+    let at = |x: f64, name: String| {
+        let mo = d.at(x);
+        station::Station { name, x: Some(x), mu: mo.mu, mnc: mo.mnc, mnc_scaled: false, moments: Some(mo) }
+    };
+    // transfer and development lengths from a first solution at midspan
+    let mid = location::location(p, 0, &at(len / 2.0, "midspan".into()), false)?;
+    let lengths: Vec<(f64, f64)> = m
+        .strands
+        .iter()
+        .enumerate()
+        .map(|(i, _)| {
+            mid.development
+                .iter()
+                .find(|dv| dv.layer == i + 1)
+                .map_or((0.0, 0.0), |dv| (dv.transfer_length, dv.development_length))
+        })
+        .collect();
+    let points: Vec<f64> = d.points.iter().map(|q| q.x).collect();
+    let region = m
+        .strands
+        .iter()
+        .zip(&lengths)
+        .map(|(s, (_, ld))| s.debonded_length + if ld.is_finite() { *ld } else { 0.0 })
+        .fold(0.0, f64::max);
+    let mut rows = Vec::new();
+    for (x, what) in station::positions(m, d.span, d.bearing, &lengths, &points) {
+        let site = at(x, format!("x = {} {}", crate::trace::show(x), p.sys.names().length));
+        let mut r = location::location(p, 0, &site, false)?;
+        settle_with_curve(m, basis, &site, 0, &mut r);
+        let mo = site.moments.as_ref().map_or_else(|| d.at(x), |mo| mo.clone());
+        let end_region = if x <= region {
+            Some(crate::input::model::End::Left)
+        } else if x >= len - region {
+            Some(crate::input::model::End::Right)
+        } else {
+            None
+        };
+        rows.push(StationRow {
+            x,
+            what,
+            end_region,
+            by_kind: mo.by_kind.map(|v| v * km),
+            mu: r.mu,
+            mnc: mo.mnc * km,
+            combination: d.combinations.get(mo.combination).map(|c| c.name.clone()).unwrap_or_default(),
+            phi: r.phi,
+            mn: r.mn,
+            phi_mn: r.phi_mn,
+            ratio: r.ratio,
+            mcr: r.mcr,
+            min_ok: r.min_reinforcement.ok,
+            status: r.status,
+            pass: r.pass,
+            conditions: r.conditions.iter().map(|c| c.kind).collect(),
+            derived: None,
+            role: None,
+        });
+    }
+    // the governing station, then the critical station of each end region
+    let most = |f: &dyn Fn(&StationRow) -> bool, rows: &[StationRow]| {
+        rows.iter().enumerate().filter(|(_, r)| f(r)).max_by(|a, b| a.1.ratio.total_cmp(&b.1.ratio)).map(|(i, _)| i)
+    };
+    let picks = [
+        (most(&|_| true, &rows), "governing station"),
+        (most(&|r| r.end_region == Some(crate::input::model::End::Left), &rows), "critical station, left end region"),
+        (most(&|r| r.end_region == Some(crate::input::model::End::Right), &rows), "critical station, right end region"),
+    ];
+    for (pick, role) in picks {
+        let Some(i) = pick else { continue };
+        if rows[i].role.is_some() {
+            continue;
+        }
+        rows[i].role = Some(role);
+        rows[i].derived = Some(sites.len());
+        let x = rows[i].x;
+        sites.push(at(x, format!("{role} (x = {} {})", crate::trace::show(x), p.sys.names().length)));
+    }
+    Ok(rows)
 }
 
 /// Whether a member is a one-way slab for the minimum-reinforcement clause.

@@ -4,9 +4,9 @@
 //! and eps2 that strain compatibility starts from.
 
 use super::prepare::Prepared;
+use super::station::Station;
 use super::{Development, checks, sy, sym_k};
 use crate::basis::Clause;
-use crate::input::model::Location;
 use crate::trace::{Step, Trace, Unit, f::*};
 
 /// Per strand layer, the state at a location before the solution.
@@ -25,9 +25,9 @@ pub(super) struct StrandAt {
 /// Each strand layer at a location: depth (harped profile at x), effective prestress
 /// after transfer, and whether it is bonded there. Transfer, development, debonding and
 /// the harp profile are measured from the nearer member end.
-pub(super) fn strands_at(p: &Prepared, li: usize, loc: &Location, tr: &mut Trace) -> Vec<StrandAt> {
+pub(super) fn strands_at(p: &Prepared, li: usize, loc: &Station, tr: &mut Trace) -> Vec<StrandAt> {
     let m = p.m;
-    let along = m.along(loc);
+    let along = loc.along(m.length);
     let from_end = along.map(|a| {
         let (end, xe) = a.nearer_end();
         tr.rec(|| {
@@ -127,7 +127,7 @@ pub(super) struct Prestress {
 }
 
 /// The prestress at a location, every step recorded.
-pub(super) fn at_location(p: &Prepared, li: usize, loc: &Location, tr: &mut Trace) -> Prestress {
+pub(super) fn at_location(p: &Prepared, li: usize, loc: &Station, tr: &mut Trace) -> Prestress {
     let m = p.m;
     let cv = p.cv;
     let tag = |k: &str| format!("L{}.{k}", li + 1);

@@ -233,6 +233,45 @@ pub struct MemberResult {
     /// [`analyze_full`]), or why it could not be found.
     pub curve: Option<super::curve::CurveResult>,
     pub curve_error: Option<String>,
+    /// The demand from the member's loads (`None`: the moments were given by hand).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub demand: Option<super::demand::Demand>,
+    /// Every station along the span, in order of x (members with loads).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub stations: Vec<StationRow>,
+    /// The sections derived in full, with their demand, in the order of `locations`.
+    #[serde(skip)]
+    pub sites: Vec<super::station::Station>,
+}
+
+/// One station along the span: its demand and its design strength (shown units).
+#[derive(Debug, Clone, Serialize)]
+pub struct StationRow {
+    pub x: f64,
+    /// Why the station is there (an end of a transfer length, a tenth point, ...).
+    pub what: Vec<String>,
+    /// Within the end region of the left or right end (up to the longest debonded plus
+    /// development length from it).
+    pub end_region: Option<crate::input::model::End>,
+    /// Unfactored moments of dead, live, roof live and snow load.
+    pub by_kind: [f64; 4],
+    pub mu: f64,
+    pub mnc: f64,
+    /// The governing load combination here.
+    pub combination: String,
+    pub phi: f64,
+    pub mn: f64,
+    pub phi_mn: f64,
+    pub ratio: f64,
+    pub mcr: f64,
+    pub min_ok: bool,
+    pub status: conclusion::Status,
+    pub pass: bool,
+    pub conditions: Vec<conclusion::ConditionKind>,
+    /// The index in `locations` of its full derivation, where it has one.
+    pub derived: Option<usize>,
+    /// "governing station", or the critical station of an end region.
+    pub role: Option<&'static str>,
 }
 
 impl MemberResult {

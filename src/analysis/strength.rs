@@ -7,10 +7,11 @@
 use super::prepare::Prepared;
 use super::prestress::StrandAt;
 use super::solve::{self, Law, Model, Part, State, Steel, Trial};
+use super::station::Station;
 use super::{LayerOut, OtherBlock, checks, sy, sym_k};
 use crate::basis::Clause;
 use crate::error::{Error, Result};
-use crate::input::model::{BlockMode, Location, StrandLayer};
+use crate::input::model::{BlockMode, StrandLayer};
 use crate::material::steel::Bar;
 use crate::section::{P, Region};
 use crate::trace::{Step, Trace, Unit, f::*};
@@ -156,7 +157,7 @@ pub(super) struct Solved<'a> {
 pub(super) fn solve_location<'a>(
     p: &'a Prepared,
     li: usize,
-    loc: &Location,
+    loc: &Station,
     at: &mut [StrandAt],
     tr: &mut Trace,
     notes: &mut Vec<String>,

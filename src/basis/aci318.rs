@@ -2,7 +2,7 @@
 //! same clauses in SI units) for SI packages. Every formula here is the code's, in the
 //! package's units: ksi (psi inside the square-root formulas) or MPa.
 
-use super::{Basis, Branch, Clause, Control};
+use super::{Basis, Branch, Clause, Combination, Control};
 use crate::trace::{Symbol, f::*};
 use crate::units::System;
 
@@ -66,6 +66,8 @@ impl Basis for Aci318 {
             Clause::MinimumWaiver { slab: false } => "9.6.2.2",
             Clause::CrackingMoment => "19.2.3",
             Clause::ApproximateFps => "20.3.2.3.1",
+            Clause::LoadCombinations => "5.3.1, Table 5.3.1",
+            Clause::ReducedLiveFactor => "5.3.3",
         }
     }
 
@@ -243,11 +245,82 @@ impl Basis for Aci318 {
     fn member_chapter(&self, slab: bool) -> &'static str {
         if slab { "Ch. 7" } else { "Ch. 9" }
     }
+
+    /// Table 5.3.1, the gravity combinations (5.3.1a) to (5.3.1c): wind, earthquake and
+    /// rain are not loads of this program. "Lr or S or R" is each of roof live load and
+    /// snow in turn (both where both are given; the roof live load's where neither is).
+    fn combinations(&self, present: [bool; 4], live_factor: f64) -> Vec<Combination> {
+        let [_, _, roof, snow] = present;
+        let mut out = vec![Combination { name: "(5.3.1a)".into(), factors: [1.4, 0.0, 0.0, 0.0] }];
+        let mut roofs: Vec<(usize, &str)> = Vec::new();
+        if roof {
+            roofs.push((2, "Lr"));
+        }
+        if snow {
+            roofs.push((3, "S"));
+        }
+        let both = roofs.len() == 2;
+        if roofs.is_empty() {
+            roofs.push((2, "Lr"));
+        }
+        for (eq, main, other) in [("b", 1.6, 0.5), ("c", live_factor, 1.6)] {
+            for (k, sym) in &roofs {
+                let mut factors = [1.2, main, 0.0, 0.0];
+                factors[*k] = other;
+                let name = if both { format!("(5.3.1{eq}) with {sym}") } else { format!("(5.3.1{eq})") };
+                out.push(Combination { name, factors });
+            }
+        }
+        out
+    }
+
+    /// 5.3.3: 0.5 on L in (5.3.1c) to (5.3.1e), except for garages, places of public
+    /// assembly, and live loads above 100 psf (4.8 kN/m²).
+    fn reduced_live_factor(&self) -> (f64, &'static str) {
+        match self.sys {
+            System::Us => (0.5, "ACI 318-19 5.3.3 (not for garages, places of public assembly, or L > 100 psf)"),
+            System::Si => (0.5, "ACI 318M-19 5.3.3 (not for garages, places of public assembly, or L > 4.8 kN/m²)"),
+        }
+    }
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    // ACI 318-19 Table 5.3.1 (by hand): (5.3.1a) U = 1.4D; (5.3.1b) U = 1.2D + 1.6L +
+    // 0.5(Lr or S or R); (5.3.1c) U = 1.2D + 1.6(Lr or S or R) + (1.0L or 0.5W); 5.3.3
+    // permits 0.5L in (5.3.1c) with its exceptions.
+    #[test]
+    fn load_combinations_table_5_3_1() {
+        let c = US.combinations([true, true, false, false], 1.0);
+        let got: Vec<(&str, [f64; 4])> = c.iter().map(|c| (c.name.as_str(), c.factors)).collect();
+        assert_eq!(
+            got,
+            vec![
+                ("(5.3.1a)", [1.4, 0.0, 0.0, 0.0]),
+                ("(5.3.1b)", [1.2, 1.6, 0.5, 0.0]),
+                ("(5.3.1c)", [1.2, 1.0, 1.6, 0.0]),
+            ]
+        );
+        assert_eq!(c[1].text(), "1.2D + 1.6L + 0.5Lr");
+        let c = US.combinations([true, true, true, true], 0.5);
+        let got: Vec<(&str, [f64; 4])> = c.iter().map(|c| (c.name.as_str(), c.factors)).collect();
+        assert_eq!(
+            got,
+            vec![
+                ("(5.3.1a)", [1.4, 0.0, 0.0, 0.0]),
+                ("(5.3.1b) with Lr", [1.2, 1.6, 0.5, 0.0]),
+                ("(5.3.1b) with S", [1.2, 1.6, 0.0, 0.5]),
+                ("(5.3.1c) with Lr", [1.2, 0.5, 1.6, 0.0]),
+                ("(5.3.1c) with S", [1.2, 0.5, 0.0, 1.6]),
+            ]
+        );
+        let c = SI.combinations([true, false, false, true], 1.0);
+        assert_eq!(c.iter().map(|c| c.name.as_str()).collect::<Vec<_>>(), ["(5.3.1a)", "(5.3.1b)", "(5.3.1c)"]);
+        assert_eq!(c[2].factors, [1.2, 1.0, 0.0, 1.6]);
+        assert_eq!(US.reduced_live_factor().0, 0.5);
+    }
 
     // ACI 318-19 Table 22.2.2.4.3 (beta1): 0.85 up to 4000 psi, 0.85 - 0.05 (f'c - 4000)/1000
     // between, 0.65 from 8000 psi.

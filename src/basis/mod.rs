@@ -73,6 +73,33 @@ pub enum Clause {
     CrackingMoment,
     /// The approximate strand stress at nominal strength.
     ApproximateFps,
+    /// The strength load combinations.
+    LoadCombinations,
+    /// The reduced live-load factor.
+    ReducedLiveFactor,
+}
+
+/// A strength load combination: its name as the code numbers it and its factors on
+/// dead, live, roof live and snow load (in [`crate::input::model::LoadKind::ALL`]'s
+/// order).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Combination {
+    pub name: String,
+    pub factors: [f64; 4],
+}
+
+impl Combination {
+    /// The combination written out ("1.2D + 1.6L + 0.5Lr").
+    pub fn text(&self) -> String {
+        use crate::input::model::LoadKind;
+        let terms: Vec<String> = LoadKind::ALL
+            .iter()
+            .zip(self.factors)
+            .filter(|(_, f)| *f != 0.0)
+            .map(|(k, f)| format!("{f}{}", k.symbol()))
+            .collect();
+        terms.join(" + ")
+    }
 }
 
 /// The strain classification of a section and its phi.
@@ -148,6 +175,13 @@ pub trait Basis: Send + Sync {
     fn approximate_min_fse(&self) -> f64;
     /// The code's chapter for a beam or a one-way slab ("Ch. 9").
     fn member_chapter(&self, slab: bool) -> &'static str;
+    /// The strength combinations of gravity loads, for the loads present (dead, live,
+    /// roof live, snow, in [`crate::input::model::LoadKind::ALL`]'s order) and the
+    /// live-load factor chosen where live load accompanies roof live load or snow.
+    fn combinations(&self, present: [bool; 4], live_factor: f64) -> Vec<Combination>;
+    /// The reduced live-load factor the code permits, and its clause with the cases
+    /// where it is not permitted.
+    fn reduced_live_factor(&self) -> (f64, &'static str);
 }
 
 /// The bases this version knows, as the input selects them.

@@ -278,11 +278,97 @@ pub struct Location {
     /// Distance from the member end; `None` when not given (strands then taken as fully
     /// developed).
     pub x: Option<f64>,
-    pub mu: f64,
-    /// Non-composite moment on the precast unit at this location (topped members).
-    pub mnc: f64,
+    /// The factored moment; `None` where the member's loads give it (the demand stage
+    /// derives it at x).
+    pub mu: Option<f64>,
+    /// Non-composite moment on the precast unit at this location (topped members);
+    /// `None` where the member's loads give it.
+    pub mnc: Option<f64>,
     /// Whether `mnc` was scaled from the member's midspan value (the location gives none).
     pub mnc_scaled: bool,
+}
+
+/// What a load is: its kind decides its load factor.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum LoadKind {
+    Dead,
+    Live,
+    RoofLive,
+    Snow,
+}
+
+impl LoadKind {
+    /// The symbol of the load in the combinations ("D", "L", "Lr", "S").
+    pub fn symbol(self) -> &'static str {
+        match self {
+            LoadKind::Dead => "D",
+            LoadKind::Live => "L",
+            LoadKind::RoofLive => "Lr",
+            LoadKind::Snow => "S",
+        }
+    }
+    pub fn word(self) -> &'static str {
+        match self {
+            LoadKind::Dead => "dead",
+            LoadKind::Live => "live",
+            LoadKind::RoofLive => "roof live",
+            LoadKind::Snow => "snow",
+        }
+    }
+    pub const ALL: [LoadKind; 4] = [LoadKind::Dead, LoadKind::Live, LoadKind::RoofLive, LoadKind::Snow];
+}
+
+/// A uniform load over the whole member, from an area load times the tributary width or
+/// given as a line load.
+#[derive(Debug, Clone, Serialize)]
+pub struct LineLoad {
+    pub kind: LoadKind,
+    /// Where it comes from: "self-weight", "topping", or the input key.
+    pub source: String,
+    /// The area load it was made from (coherent stress), if any.
+    pub area_load: Option<f64>,
+    /// Coherent force per length.
+    pub w: f64,
+    /// Carried by the precast unit alone (self-weight; the topping of unshored
+    /// construction), not by the composite section.
+    pub precast_only: bool,
+}
+
+/// A concentrated load.
+#[derive(Debug, Clone, Serialize)]
+pub struct PointLoad {
+    pub kind: LoadKind,
+    pub name: String,
+    /// Coherent force.
+    pub p: f64,
+    /// From the left end.
+    pub x: f64,
+}
+
+/// The member's service loads and how it is supported: the input of the demand stage.
+#[derive(Debug, Clone, Serialize)]
+pub struct Loads {
+    /// Centre to centre of the bearings.
+    pub span: f64,
+    /// Distance of each bearing from its end: (length - span) / 2.
+    pub bearing: f64,
+    /// Tributary width of the area loads.
+    pub width: f64,
+    /// Unit weight of the precast concrete and of the topping, as densities (pcf or
+    /// kg/m³) with whether each was given.
+    pub density: f64,
+    pub topping_density: Option<f64>,
+    /// Topping placed on a shored member: its weight is carried by the composite section.
+    pub shored: bool,
+    /// Area and line loads as given (self-weight and topping are added by the demand
+    /// stage, which derives them from the section).
+    pub uniform: Vec<LineLoad>,
+    pub points: Vec<PointLoad>,
+    /// The live-load factor of the combination where live load accompanies roof live
+    /// load or snow (1.0, or 0.5 where the basis permits), with the reason given.
+    pub live_factor: f64,
+    pub live_factor_reason: Option<String>,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -310,6 +396,8 @@ pub struct Member {
     pub length: Option<f64>,
     pub mnc: f64,
     pub locations: Vec<Location>,
+    /// Service loads; `None` where the moments are given by hand.
+    pub loads: Option<Loads>,
     pub concrete: Concrete,
     pub shape: Shape,
     #[serde(skip)]

@@ -91,8 +91,12 @@ pub struct Member {
     pub description: Option<String>,
     pub kind: Option<String>,
     pub length: Option<Q>,
+    pub span: Option<Q>,
     pub mu: Option<Q>,
     pub mnc: Option<Q>,
+    pub loads: Option<Loads>,
+    #[serde(default)]
+    pub point_load: Vec<PointLoad>,
     #[serde(default)]
     pub location: Vec<Location>,
     pub concrete: Option<Concrete>,
@@ -103,6 +107,30 @@ pub struct Member {
     #[serde(default)]
     pub bars: Vec<Bars>,
     pub curve: Option<CurveOptions>,
+}
+
+/// Service loads on a member: area loads ("20 psf", "1.0 kPa") times the tributary
+/// width, or line loads ("0.8 klf", "11.7 kN/m").
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Loads {
+    pub superimposed_dead: Option<Q>,
+    pub live: Option<Q>,
+    pub roof_live: Option<Q>,
+    pub snow: Option<Q>,
+    pub width: Option<Q>,
+    pub shored: Option<bool>,
+    pub live_factor: Option<f64>,
+    pub live_factor_reason: Option<String>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct PointLoad {
+    pub name: Option<String>,
+    pub kind: Option<String>,
+    pub load: Option<Q>,
+    pub x: Option<Q>,
 }
 
 #[derive(Debug, Deserialize)]

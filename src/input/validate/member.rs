@@ -24,6 +24,7 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     let (shape, region) = section(cx, m);
     let kind = kind(cx, m, shape.as_ref());
     let topping = topping(cx, m, region.as_ref(), &mut defaults)?;
+    let with_loads = loads::has_loads(m);
     // moments
     let mu = match &m.mu {
         Some(_) => Some(cx.ranged("mu", &m.mu, Dim::Moment, 0.0, r.moment_max, true)?),
@@ -38,7 +39,7 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
             v
         }
         None => {
-            if m.topping.is_some() {
+            if m.topping.is_some() && !with_loads {
                 defaults.push(Default { key: "mnc".into(), text: "non-composite moment Mnc = 0 (not given)".into() });
             }
             0.0
@@ -92,7 +93,9 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
             (None, _) => None,
         };
         let lmu = match &l.mu {
-            Some(_) => cx.ranged("mu", &l.mu, Dim::Moment, 0.0, r.moment_max, true),
+            Some(_) => cx.ranged("mu", &l.mu, Dim::Moment, 0.0, r.moment_max, true).map(Some),
+            // derived from the member's loads at x
+            None if with_loads => Some(None),
             None => {
                 if mu.is_none() {
                     cx.problem(
@@ -101,15 +104,16 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
                         Some("the factored moment at the location".to_string()),
                     );
                 }
-                mu
+                mu.map(Some)
             }
         };
         if l.x.is_none() {
             cx.problem("x", "x is missing", Some("the location's distance from the member end".to_string()));
         }
-        let mnc_scaled = l.mnc.is_none() && length.is_some() && x.is_some() && m.topping.is_some();
+        let mnc_scaled = !with_loads && l.mnc.is_none() && length.is_some() && x.is_some() && m.topping.is_some();
         let lmnc = match &l.mnc {
-            Some(_) => cx.ranged("mnc", &l.mnc, Dim::Moment, 0.0, r.moment_max, false),
+            Some(_) => cx.ranged("mnc", &l.mnc, Dim::Moment, 0.0, r.moment_max, false).map(Some),
+            None if with_loads => Some(None),
             None => match (length, x) {
                 (Some(len), Some(x)) if m.topping.is_some() => {
                     if mnc > 0.0 {
@@ -118,9 +122,9 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
                             text: "where a location gives no mnc, the member's mnc (at midspan) is scaled by 4x(L - x)/L², as for a uniformly loaded simple span".into(),
                         });
                     }
-                    Some(mnc * 4.0 * x * (len - x) / (len * len))
+                    Some(Some(mnc * 4.0 * x * (len - x) / (len * len)))
                 }
-                _ => Some(mnc),
+                _ => Some(Some(mnc)),
             },
         };
         if let (Some(lmu), Some(x), Some(lmnc)) = (lmu, x, lmnc) {
@@ -145,7 +149,9 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
             }
         }
     }
-    if m.location.is_empty() {
+    // with loads, the stations along the span are the member's sections (the demand stage)
+    if m.location.is_empty() && !with_loads {
+        let (mu, mnc) = (mu.map(Some), Some(mnc));
         match mu {
             Some(mu) => match length {
                 Some(l) => {
@@ -163,6 +169,10 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
         }
     }
 
+    let loads = loads::loads(cx, m, length, region.as_ref(), topping.as_ref(), concrete.as_ref(), &mut defaults);
+    if with_loads && loads.is_none() {
+        return None;
+    }
     let region = region?;
     let (strands, bars) = steel(cx, m, &region, length, &mut defaults)?;
     let curve = curve_options(cx, m)?;
@@ -180,6 +190,7 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
         length,
         mnc,
         locations,
+        loads,
         concrete: concrete?,
         shape: shape?,
         region,

@@ -3,6 +3,7 @@
 //! their key paths; `super::load` turns the paths into file positions.
 
 mod concrete;
+mod loads;
 mod member;
 mod meta;
 mod shape;
@@ -161,6 +162,10 @@ impl Ctx {
             Dim::Density => match self.sys {
                 System::Us => "lb/ft3",
                 System::Si => "kg/m3",
+            },
+            Dim::LineLoad => match self.sys {
+                System::Us => "klf",
+                System::Si => "kN/m",
             },
         }
     }
