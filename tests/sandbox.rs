@@ -81,7 +81,7 @@ fn a_template_cannot_read_outside_its_folder() {
     let out = outside.path().join("ok.pdf");
     let (code, err) = report_with(dir.path(), &out);
     assert!(matches!(code, Some(0 | 3)), "{err}");
-    let text = pdftotext(&std::fs::read(&out).unwrap(), None);
+    let text = pdf_text(&std::fs::read(&out).unwrap(), None);
     assert!(text.contains("Saltmarsh Quay Residences"), "{text}");
 }
 
