@@ -10,6 +10,7 @@
 //! ```
 
 pub mod analysis;
+pub mod basis;
 pub mod diff;
 pub mod error;
 pub mod files;
@@ -44,7 +45,7 @@ pub fn check_json(pkg: &input::Package) -> Result<CheckJson> {
             let mut buf = Vec::with_capacity(ms.len() * 2048);
             let mut status = Status::Pass;
             for m in ms {
-                let r = analysis::analyze_member(m, pkg.units, false)?;
+                let r = analysis::analyze_member(m, pkg.basis(), false)?;
                 status = status.and(r.status);
                 if !buf.is_empty() {
                     buf.push(b',');
@@ -110,7 +111,7 @@ pub fn write_trace(
     let mut first = true;
     for chunk in chosen.chunks(8) {
         let done: Vec<Result<analysis::MemberResult>> =
-            chunk.par_iter().map(|m| analysis::analyze_member(m, pkg.units, true)).collect();
+            chunk.par_iter().map(|m| analysis::analyze_member(m, pkg.basis(), true)).collect();
         for r in done {
             let r = match r {
                 Ok(r) => r,

@@ -197,7 +197,7 @@ fn location_view(l: &LocationResult, sys: System) -> Value {
             "approx_diff": opt(l.approximate.difference),
             "other_mn": opt(l.other_block.as_ref().map(|o| o.mn)),
             "max_strand_strain": scaled(l.max_strand_strain, Unit::Strain),
-            "eps_cu": crate::trace::const_text(crate::material::concrete::EPS_CU),
+            "eps_cu": crate::trace::const_text(l.eps_cu),
             "x_label": match l.x { Some(x) => format!("x = {} {}", show(x), u.length), None => "strands taken as fully developed".into() },
         }),
     );
@@ -286,7 +286,8 @@ fn show_tick(t: f64) -> String {
     if s == "-0" { "0".into() } else { minus(s.to_string()) }
 }
 
-fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: System) -> Value {
+fn member_view(m: &MemberResult, input: &crate::input::model::Member, basis: &dyn crate::basis::Basis) -> Value {
+    let sys = basis.units();
     let steps = steps_view(&m.trace, sys);
     let u = sys.names();
     let mut rows: Vec<Value> = Vec::new();
@@ -319,8 +320,10 @@ fn member_view(m: &MemberResult, input: &crate::input::model::Member, sys: Syste
     row(
         "Member kind",
         match input.kind {
-            crate::input::model::Kind::Beam => format!("beam ({} Ch. 9)", crate::analysis::code(sys)),
-            crate::input::model::Kind::OneWaySlab => format!("one-way slab ({} Ch. 7)", crate::analysis::code(sys)),
+            crate::input::model::Kind::Beam => format!("beam ({} {})", basis.name(), basis.member_chapter(false)),
+            crate::input::model::Kind::OneWaySlab => {
+                format!("one-way slab ({} {})", basis.name(), basis.member_chapter(true))
+            }
         },
     );
     let strands: Vec<Value> = input
@@ -583,7 +586,8 @@ pub fn build(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Va
         .collect();
     let members: Vec<Value> = {
         use rayon::prelude::*;
-        a.members.par_iter().zip(&pkg.members).map(|(r, m)| member_view(r, m, sys)).collect()
+        let basis = pkg.basis();
+        a.members.par_iter().zip(&pkg.members).map(|(r, m)| member_view(r, m, basis)).collect()
     };
     let draft = meta.is_draft();
     let signoffs: Vec<Value> = meta
