@@ -1,5 +1,6 @@
 //! Files on disk: only regular files are replaced; any legal output name is written and
-//! a name too long is said to be; SIGTERM and SIGHUP clean up as Ctrl-C does; a
+//! a name too long is said to be; an interrupted report (Ctrl-C) leaves the old file and
+//! no temporary, and SIGTERM and SIGHUP clean up as Ctrl-C does; a
 //! template folder's entries are never followed through a link, even one swapped in
 //! while the folder is read.
 
@@ -197,4 +198,29 @@ fn a_template_swapped_for_a_link_is_never_followed() {
     stop.store(true, std::sync::atomic::Ordering::Relaxed);
     swapper.join().unwrap();
     assert!(read + refused > 100, "only {read} reads and {refused} refusals");
+}
+
+/// Ctrl-C (SIGINT) during `report --overwrite`: the handler runs (exit 130), the file
+/// being replaced is left as it was, and no temporary file is left.
+#[cfg(target_os = "linux")]
+#[test]
+fn an_interrupted_report_leaves_the_old_file_and_no_temporary() {
+    let dir = tempfile::tempdir().unwrap();
+    let input = dir.path().join("big.toml");
+    std::fs::write(&input, replicated("parking-double-tee.toml", 40)).unwrap();
+    let out = dir.path().join("big.pdf");
+    std::fs::write(&out, b"the issued package").unwrap();
+    let child = bin()
+        .args(["report", input.to_str().unwrap(), "-o", out.to_str().unwrap(), "--overwrite"])
+        .stderr(std::process::Stdio::piped())
+        .spawn()
+        .unwrap();
+    std::thread::sleep(std::time::Duration::from_millis(600));
+    // SAFETY: kill sends a signal to the child we started, by its id.
+    assert_eq!(unsafe { libc::kill(child.id() as i32, libc::SIGINT) }, 0);
+    let o = child.wait_with_output().unwrap();
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert_eq!(o.status.code(), Some(130), "{err}");
+    assert_eq!(std::fs::read(&out).unwrap(), b"the issued package");
+    assert_eq!(names_in(dir.path()), ["big.pdf", "big.toml"], "{err}");
 }

@@ -416,7 +416,7 @@ fn the_two_hashes_are_labelled() {
     );
     assert!(out.contains("[ok  ] sidecar file hash (PDF)"), "{out}");
     // the cover names the hash it shows as the payload's
-    let cover = pdftotext(&bytes, Some(1));
+    let cover = pdf_text(&bytes, Some(1));
     // the label is set in spaced capitals
     let squeezed: String = cover.chars().filter(|c| !c.is_whitespace()).collect::<String>().to_uppercase();
     assert!(squeezed.contains("CONTENTSHA-256OFTHEPAYLOAD") && cover.contains(&content_hash), "{cover}");

@@ -47,14 +47,14 @@ fn every_sheet_has_title_block_hash_and_draft_mark() {
         assert_eq!(n, r.pages);
         let draft = pkg.meta.is_draft();
         for p in 1..=n {
-            let t = pdftotext(&r.pdf, Some(p));
+            let t = pdf_text(&r.pdf, Some(p));
             assert!(t.contains(&r.hash[..16]), "{ex} sheet {p}: no content hash in the title block");
             assert!(t.contains(&format!("{p} of {n}")), "{ex} sheet {p}: no 'sheet {p} of {n}'");
             assert!(t.contains(&pkg.meta.project), "{ex} sheet {p}: no project name");
             assert_eq!(t.contains("DRAFT"), draft, "{ex} sheet {p}: DRAFT mark should be {draft}");
         }
         // the full hash and the number of sheets on the cover
-        let cover = pdftotext(&r.pdf, Some(1));
+        let cover = pdf_text(&r.pdf, Some(1));
         assert!(cover.contains(&r.hash), "{ex}: the cover lacks the full hash");
         assert!(cover.contains(&format!("{n}, this cover included")), "{ex}: the cover's sheet count is not {n}");
     }
@@ -71,8 +71,8 @@ fn draft_until_every_signoff_is_dated() {
     let pkg2 = input::parse(&src2).unwrap();
     assert!(pkg2.meta.is_draft());
     let r = render(&pkg2, &src2);
-    assert!(pdftotext(&r.pdf, Some(1)).contains("DRAFT"));
-    assert!(pdftotext(&r.pdf, Some(pages(&r.pdf))).contains("DRAFT"));
+    assert!(pdf_text(&r.pdf, Some(1)).contains("DRAFT"));
+    assert!(pdf_text(&r.pdf, Some(pages(&r.pdf))).contains("DRAFT"));
 }
 
 fn squash(s: &str) -> String {
@@ -86,7 +86,7 @@ fn displayed_values_equal_the_trace() {
         let a = strainsheet::analysis::analyze_full(&pkg).unwrap();
         let r = strainsheet::report::render(&pkg, &src, &a, &strainsheet::report::Templates::builtin()).unwrap();
         let n = pages(&r.pdf);
-        let sheets: Vec<String> = (1..=n).map(|p| squash(&pdftotext(&r.pdf, Some(p)))).collect();
+        let sheets: Vec<String> = (1..=n).map(|p| squash(&pdf_text(&r.pdf, Some(p)))).collect();
         for m in &a.members {
             for l in &m.locations {
                 // the sheets of this location: their title block names it as "<id> · <name>"
@@ -185,7 +185,7 @@ use strainsheet::input::Package;
 fn user_text_prints_literally() {
     let (pkg, src) = hostile_package();
     let r = render(&pkg, &src);
-    let text = pdftotext(&r.pdf, None);
+    let text = pdf_text(&r.pdf, None);
     assert!(!text.contains("root:"), "a file of the machine leaked into the package");
     for s in [
         r#"#read("/etc/passwd") $x^2$ *bold* _it_ <lab> @ref ]]"#,
@@ -238,7 +238,7 @@ fn bookmarks_lead_to_every_member() {
             let entry =
                 toc.toc.iter().find(|t| t.title == title).unwrap_or_else(|| panic!("{ex}: no bookmark {title}"));
             assert!(
-                pdftotext(&r.pdf, Some(entry.page)).contains(&title),
+                pdf_text(&r.pdf, Some(entry.page)).contains(&title),
                 "{ex}: bookmark {title} leads to sheet {}",
                 entry.page
             );
@@ -246,7 +246,7 @@ fn bookmarks_lead_to_every_member() {
         for part in ["Summary of members", "Appendix: the input file"] {
             let entry = toc.toc.iter().find(|t| t.title == part).unwrap_or_else(|| panic!("{ex}: no bookmark {part}"));
             assert!(
-                pdftotext(&r.pdf, Some(entry.page)).contains(part),
+                pdf_text(&r.pdf, Some(entry.page)).contains(part),
                 "{ex}: bookmark {part} leads to sheet {}",
                 entry.page
             );
@@ -309,7 +309,7 @@ fn sidecar_reads_with_sha256sum() {
 fn contents_points_at_the_right_sheets() {
     for (ex, pkg, r) in packages() {
         // the contents of fourteen members runs over two sheets
-        let contents = pdftotext(&r.pdf, Some(2)) + &pdftotext(&r.pdf, Some(3));
+        let contents = pdf_text(&r.pdf, Some(2)) + &pdf_text(&r.pdf, Some(3));
         assert!(!contents.contains('—'), "{ex}: a contents row has no sheet:\n{contents}");
         let sheet_of = |needle: &str| -> usize {
             let line = contents
@@ -320,14 +320,14 @@ fn contents_points_at_the_right_sheets() {
         };
         for m in &pkg.members {
             let s = sheet_of(&format!("Member {}", m.id));
-            let text = pdftotext(&r.pdf, Some(s));
+            let text = pdf_text(&r.pdf, Some(s));
             assert!(text.contains(&format!("Member {}", m.id)), "{ex}: member {} is not on sheet {s}", m.id);
             for loc in &m.locations {
                 // location rows are indented under their member; find the first after it
                 let after = &contents[contents.find(&format!("Member {}", m.id)).unwrap()..];
                 let line = after.lines().find(|l| l.trim_start().starts_with(loc.name.as_str())).unwrap();
                 let s: usize = line.split_whitespace().last().unwrap().parse().unwrap();
-                let text = pdftotext(&r.pdf, Some(s));
+                let text = pdf_text(&r.pdf, Some(s));
                 assert!(
                     text.contains(&format!("{} · {}", m.id, loc.name)),
                     "{ex}: {} {} is not on sheet {s}",
@@ -338,7 +338,7 @@ fn contents_points_at_the_right_sheets() {
         }
         for part in ["Summary of members", "Cautions", "Appendix: the input file"] {
             let s = sheet_of(part);
-            assert!(pdftotext(&r.pdf, Some(s)).contains(part), "{ex}: {part} not on sheet {s}");
+            assert!(pdf_text(&r.pdf, Some(s)).contains(part), "{ex}: {part} not on sheet {s}");
         }
     }
 }

@@ -67,16 +67,18 @@ fn trace_agrees_with_results() {
         let a = analysis::analyze(&pkg, true).unwrap();
         let fast = analysis::analyze(&pkg, false).unwrap();
         for (m, f) in a.members.iter().zip(&fast.members) {
-            for (l, lf) in m.locations.iter().zip(&f.locations) {
-                let get = |id: &str| {
-                    l.trace
-                        .iter()
-                        .find(|s| s.id.ends_with(id))
-                        .map(|s| s.value)
-                        .unwrap_or_else(|| panic!("no step {id}"))
+            for (j, (l, lf)) in m.locations.iter().zip(&f.locations).enumerate() {
+                // a location's steps are named `L<its number>.<step>`: looked up by the
+                // whole id, so that no other step ending the same way can answer
+                let get = |step: &str| {
+                    let id = format!("L{}.{step}", j + 1);
+                    let mut found = l.trace.iter().filter(|s| s.id == id);
+                    let s = found.next().unwrap_or_else(|| panic!("{}: no step {id}", m.id));
+                    assert!(found.next().is_none(), "{}: two steps {id}", m.id);
+                    s.value
                 };
                 assert_eq!(get("strength.Mn"), l.mn);
-                assert_eq!(get(".c"), l.c);
+                assert_eq!(get("c"), l.c);
                 assert_eq!(get("phiMn"), l.phi_mn);
                 assert_eq!(lf.mn, l.mn, "traced and untraced runs differ");
                 assert_eq!(lf.phi_mn, l.phi_mn);

@@ -3,6 +3,10 @@
 
 use strainsheet::input::{self, Package, Source};
 
+mod pdf_text;
+#[allow(unused_imports)]
+pub use pdf_text::pdf_text;
+
 /// A package header in US units with sign-offs, for test members.
 pub const HEAD_US: &str = r#"format = 1
 [package]
@@ -65,21 +69,6 @@ pub fn render_example(name: &str) -> (Package, strainsheet::report::Rendered) {
     let (src, pkg) = input::load(&example(name)).expect("load");
     let r = render(&pkg, &src);
     (pkg, r)
-}
-
-/// The text of a PDF (or of one page), by poppler's pdftotext.
-pub fn pdftotext(pdf: &[u8], page: Option<usize>) -> String {
-    let dir = tempfile::tempdir().unwrap();
-    let path = dir.path().join("p.pdf");
-    std::fs::write(&path, pdf).unwrap();
-    let mut cmd = std::process::Command::new("pdftotext");
-    if let Some(p) = page {
-        cmd.args(["-f", &p.to_string(), "-l", &p.to_string()]);
-    }
-    cmd.arg("-layout").arg(&path).arg("-");
-    let out = cmd.output().expect("pdftotext (poppler-utils) is needed by this test: apt-get install poppler-utils");
-    assert!(out.status.success(), "pdftotext failed: {}", String::from_utf8_lossy(&out.stderr));
-    String::from_utf8_lossy(&out.stdout).into_owned()
 }
 
 /// Page count of a PDF.
