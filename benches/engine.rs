@@ -65,10 +65,10 @@ fn benches(c: &mut Criterion) {
     let pkg = load(&format!("{HEAD}{POLYGON_MEMBER}"));
     let m = &pkg.members[0];
     c.bench_function("solve: 12-vertex polygon, 3 layers", |b| {
-        b.iter(|| analysis::analyze_member(black_box(m), pkg.units, false).unwrap())
+        b.iter(|| analysis::analyze_member(black_box(m), pkg.basis(), false).unwrap())
     });
     c.bench_function("solve, traced: 12-vertex polygon, 3 layers", |b| {
-        b.iter(|| analysis::analyze_member(black_box(m), pkg.units, true).unwrap())
+        b.iter(|| analysis::analyze_member(black_box(m), pkg.basis(), true).unwrap())
     });
 
     let (_, hc) = example("hollow-core-plank.toml");
@@ -84,7 +84,7 @@ fn benches(c: &mut Criterion) {
 
     let dm = &dt.members[0];
     c.bench_function("curve: 200 points, topped double tee", |b| {
-        b.iter(|| analysis::curve::moment_curvature(black_box(dm), dt.units, 2).unwrap())
+        b.iter(|| analysis::curve::moment_curvature(black_box(dm), dt.basis(), 2).unwrap())
     });
 
     // a 10-member package: the double tees repeated

@@ -11,6 +11,7 @@
 //! ```
 
 pub mod analysis;
+pub mod basis;
 pub mod error;
 pub mod fonts;
 pub mod input;
@@ -41,7 +42,7 @@ pub fn check_members(pkg: &input::Package) -> Result<CheckedMembers> {
             let mut buf = Vec::with_capacity(ms.len() * 2048);
             let mut status = Status::Pass;
             for m in ms {
-                let r = analysis::analyze_member(m, pkg.units, false)?;
+                let r = analysis::analyze_member(m, pkg.basis(), false)?;
                 status = status.and(r.status);
                 if !buf.is_empty() {
                     buf.push(b',');
@@ -108,7 +109,7 @@ pub fn write_trace(
     let mut first = true;
     for chunk in chosen.chunks(8) {
         let done: Vec<Result<analysis::MemberResult>> =
-            chunk.par_iter().map(|m| analysis::analyze_member(m, pkg.units, true)).collect();
+            chunk.par_iter().map(|m| analysis::analyze_member(m, pkg.basis(), true)).collect();
         for r in done {
             let r = match r {
                 Ok(r) => r,

@@ -430,7 +430,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             };
             let member = pkg.members[mi].id.clone();
             let m = &pkg.members[mi];
-            let r = analysis::analyze_member(m, pkg.units, false)?;
+            let r = analysis::analyze_member(m, pkg.basis(), false)?;
             let li = match &location {
                 Some(name) => m.locations.iter().position(|l| &l.name == name).ok_or_else(|| {
                     let names: Vec<&str> = m.locations.iter().map(|l| l.name.as_str()).collect();
@@ -441,7 +441,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 })?,
                 None => r.governing,
             };
-            let c = analysis::curve::moment_curvature(m, pkg.units, li)?;
+            let c = analysis::curve::moment_curvature(m, pkg.basis(), li)?;
             match format {
                 CurveFormat::Json => {
                     let v = present::curve_json(&pkg, &c, &r.locations[li]);

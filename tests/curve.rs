@@ -34,16 +34,16 @@ fn peak_agrees_with_stress_block_mn() {
     for (ex, tol) in cases {
         let (_, pkg) = strainsheet::input::load(&example(ex)).unwrap();
         for m in &pkg.members {
-            let r = analysis::analyze_member(m, pkg.units, false).unwrap();
-            let c = moment_curvature(m, pkg.units, r.governing).unwrap();
+            let r = analysis::analyze_member(m, pkg.basis(), false).unwrap();
+            let c = moment_curvature(m, pkg.basis(), r.governing).unwrap();
             let mn = r.governing().mn;
             assert!(rel(c.peak.moment, mn) < tol, "{ex} {}: peak {} vs Mn {mn}", m.id, c.peak.moment);
         }
     }
     let pkg = parse(&rect_member("[[member.strands]]\ndepth = 21.0\ncount = 4\ndiameter = 0.5\nfse = 160.0\n"));
     let m = &pkg.members[0];
-    let r = analysis::analyze_member(m, pkg.units, false).unwrap();
-    let c = moment_curvature(m, pkg.units, 0).unwrap();
+    let r = analysis::analyze_member(m, pkg.basis(), false).unwrap();
+    let c = moment_curvature(m, pkg.basis(), 0).unwrap();
     assert!(
         rel(c.peak.moment, r.locations[0].mn) < 0.03,
         "rectangle: peak {} vs Mn {}",
@@ -63,8 +63,8 @@ fn peak_agrees_with_stress_block_mn() {
 fn cracking_matches_the_transformed_section() {
     let pkg = parse(&rect_member("[[member.strands]]\ndepth = 21.0\ncount = 6\ndiameter = 0.5\nfse = 160.0\n"));
     let m = &pkg.members[0];
-    let r = analysis::analyze_member(m, pkg.units, false).unwrap();
-    let c = moment_curvature(m, pkg.units, 0).unwrap();
+    let r = analysis::analyze_member(m, pkg.basis(), false).unwrap();
+    let c = moment_curvature(m, pkg.basis(), 0).unwrap();
     let (b, h, dp, aps, fse) = (12.0f64, 24.0f64, 21.0f64, 6.0 * 0.153, 160.0);
     let ec = 57_000.0 * (6000.0f64).sqrt() / 1000.0;
     let fr = 7.5 * (6000.0f64).sqrt() / 1000.0;
@@ -96,7 +96,7 @@ fn reinforced_yield_point_matches_cracked_section_theory() {
     pkg.members[0].strands.clear();
     pkg.members[0].concrete.fc = 6.0;
     let m = &pkg.members[0];
-    let c = moment_curvature(m, pkg.units, 0).unwrap();
+    let c = moment_curvature(m, pkg.basis(), 0).unwrap();
     let y = c.yielding.expect("the bars yield");
     let ec = m.concrete.ec;
     let (b, d, as_, fy, es) = (12.0, 21.5, 3.0 * 0.44, 60.0, 29_000.0);
@@ -113,7 +113,7 @@ fn reinforced_yield_point_matches_cracked_section_theory() {
 fn the_curve_ends_at_crushing_or_rupture() {
     let (_, pkg) = strainsheet::input::load(&example("inverted-tee-girder.toml")).unwrap();
     for m in &pkg.members {
-        let c = moment_curvature(m, pkg.units, 0).unwrap();
+        let c = moment_curvature(m, pkg.basis(), 0).unwrap();
         let last = c.points.last().unwrap();
         match c.ended_by {
             "concrete crushing" => {
@@ -179,8 +179,8 @@ fn the_curve_follows_one_branch() {
     for ex in ["parking-double-tee.toml", "inverted-tee-girder.toml", "hollow-core-plank.toml"] {
         let (_, pkg) = strainsheet::input::load(&example(ex)).unwrap();
         for m in &pkg.members {
-            let r = analysis::analyze_member(m, pkg.units, false).unwrap();
-            let c = moment_curvature(m, pkg.units, r.governing).unwrap();
+            let r = analysis::analyze_member(m, pkg.basis(), false).unwrap();
+            let c = moment_curvature(m, pkg.basis(), r.governing).unwrap();
             let (crush, rupture) = (m.curve.crushing_strain, m.curve.rupture_strain);
             let peak = c.peak.moment;
             for w in c.points.windows(2) {

@@ -1,27 +1,19 @@
 //! Code checks around the strain-compatibility solution: strand transfer and
-//! development (ACI 318-19 25.4.8, 21.2.3), the control class and phi (Table 21.2.2),
-//! the cracking moment and minimum reinforcement (9.6.2, 7.6.2), and the code's
-//! approximate fps (20.3.2.3.1) for comparison.
+//! development, the control class and phi, the cracking moment and minimum
+//! reinforcement, and the code's approximate fps for comparison. What the code decides is
+//! asked of the design basis; the clauses named in comments are those of ACI 318-19.
 
+use super::prepare::Prepared;
+use super::prestress::StrandAt;
 use super::solve::{Law, Model, State};
-use super::{Approximate, Development, MinReinforcement, Prepared, StrandAt, is_slab, si, sy};
+use super::{Approximate, Development, MinReinforcement, is_slab, sy, sym_k};
+use crate::basis::{Clause, Control};
 use crate::input::model::{End, StrandLayer};
-use crate::material::concrete::EPS_CU;
 use crate::trace::{Step, Trace, Unit, f::*, show};
 use crate::units::System;
 
 fn tag(li: usize, k: &str) -> String {
     format!("L{}.{k}", li + 1)
-}
-
-/// The divisors of the transfer and development terms of 25.4.8.1 in the package's
-/// stress unit: fse/3000 and (fps - fse)/1000 with psi are fse/3 and (fps - fse)/1 with
-/// ksi; ACI 318M-19 uses fse/21 and (fps - fse)/7 with MPa.
-fn dev_divisors(sys: System) -> (f64, f64) {
-    match sys {
-        System::Us => (3.0, 1.0),
-        System::Si => (21.0, 7.0),
-    }
 }
 
 /// Transfer length and the effective prestress at a section `from_end` (the nearer end
@@ -38,7 +30,7 @@ pub(super) fn transfer(
         return (s.fse, true, None);
     };
     let k = i + 1;
-    let (d1, _) = dev_divisors(p.sys);
+    let (d1, _) = p.basis.development_divisors();
     let ltr = s.fse / d1 * s.diameter;
     let x_bond = xe - s.debonded_length;
     tr.rec(|| {
@@ -46,13 +38,13 @@ pub(super) fn transfer(
             "development",
             tag(li, &format!("dev.ltr.{k}")),
             format!("Transfer length, layer {k}"),
-            si("ell", "\"tr\"", "ltr", k),
+            sym_k("ell", "\"tr\"", "ltr", k),
         )
         .formula(mul(vec![div(v(0), n(d1)), v(1)]))
-        .input(si("f", "\"se\"", "fse", k), s.fse, Unit::Stress)
+        .input(sym_k("f", "\"se\"", "fse", k), s.fse, Unit::Stress)
         .input(s_db(), s.diameter, Unit::Length)
         .result(ltr, Unit::Length)
-        .clause("ACI 318-19 2.3 (transfer length), 25.4.8.1 first term, R25.4.8.1")
+        .clause(p.basis.cite(Clause::TransferLength))
         .note(match p.sys {
             _ if s.fse == 0.0 => "untensioned strand: no prestress to transfer",
             System::Us => "fse in ksi (fse/3000 with psi)",
@@ -65,11 +57,11 @@ pub(super) fn transfer(
                 "development",
                 tag(li, &format!("dev.xb.{k}")),
                 format!("Bonded length to the section, layer {k}"),
-                si("x", "b", "xb", k),
+                sym_k("x", "b", "xb", k),
             )
             .formula(sub(v(0), v(1)))
             .input(sy("x_e", "xe"), xe, Unit::Length)
-            .input(si("ell", "\"db\"", "l_debond", k), s.debonded_length, Unit::Length)
+            .input(sym_k("ell", "\"db\"", "l_debond", k), s.debonded_length, Unit::Length)
             .result(x_bond, Unit::Length)
             .note(format!(
                 "distance from where the bond begins, debonded over ℓdb at each end; from the {}",
@@ -122,7 +114,7 @@ pub(super) fn development(
 ) -> Option<f64> {
     let dev = at.dev.as_mut()?;
     let k = i + 1;
-    let (d1, d2) = dev_divisors(p.sys);
+    let (d1, d2) = p.basis.development_divisors();
     let fse_full = s.fse;
     let fps_d = fps.max(fse_full);
     let factor = if dev.doubled { 2.0 } else { 1.0 };
@@ -139,13 +131,13 @@ pub(super) fn development(
         } else {
             (core, "fps as solved at this location with the strand fully developed, so ℓd differs a little between locations")
         };
-        Step::new("development", tag(li, &format!("dev.ld.{k}")), format!("Development length, layer {k}"), si("ell", "d", "ld", k))
+        Step::new("development", tag(li, &format!("dev.ld.{k}")), format!("Development length, layer {k}"), sym_k("ell", "d", "ld", k))
             .formula(formula)
-            .input(si("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
-            .input(si("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
+            .input(sym_k("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
+            .input(sym_k("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
             .input(s_db(), s.diameter, Unit::Length)
             .result(ld, Unit::Length)
-            .clause(if factor == 2.0 { "ACI 318-19 25.4.8.1(a), (b)" } else { "ACI 318-19 25.4.8.1(a)" })
+            .clause(p.basis.cite(if factor == 2.0 { Clause::DevelopmentDoubled } else { Clause::DevelopmentLength }))
             .note(note)
     });
     if !at.active {
@@ -161,10 +153,10 @@ pub(super) fn development(
                 "development",
                 tag(li, &format!("dev.full.{k}")),
                 format!("Bonded length against the development length, layer {k}"),
-                si("x", "b", "xb", k),
+                sym_k("x", "b", "xb", k),
             )
             .result(xb, Unit::Length)
-            .clause("ACI 318-19 25.4.8.3")
+            .clause(p.basis.cite(Clause::StrandStressLimit))
             .note(format!(
                 "bonded length from the {}, at least ℓd = {} {}: the strand is fully developed here and its stress is not limited",
                 dev.end.name(),
@@ -186,23 +178,23 @@ pub(super) fn development(
             "development",
             tag(li, &format!("dev.fpx.{k}")),
             format!("Strand stress limit at the section, layer {k}"),
-            si("f", "\"px\"", "fpx", k),
+            sym_k("f", "\"px\"", "fpx", k),
         )
-        .clause("ACI 318-19 25.4.8.3");
+        .clause(p.basis.cite(Clause::StrandStressLimit));
         if xb <= ltr {
             st.formula(div(mul(vec![v(0), v(1)]), v(2)))
-                .input(si("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
-                .input(si("x", "b", "xb", k), xb, Unit::Length)
-                .input(si("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
+                .input(sym_k("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
+                .input(sym_k("x", "b", "xb", k), xb, Unit::Length)
+                .input(sym_k("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
                 .result(cap, Unit::Stress)
                 .note(format!("within the transfer length from the {}", end.name()))
         } else {
             st.formula(add(vec![v(0), mul(vec![div(sub(v(1), v(2)), sub(v(3), v(2))), sub(v(4), v(0))])]))
-                .input(si("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
-                .input(si("x", "b", "xb", k), xb, Unit::Length)
-                .input(si("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
-                .input(si("ell", "d", "ld", k), ld, Unit::Length)
-                .input(si("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
+                .input(sym_k("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
+                .input(sym_k("x", "b", "xb", k), xb, Unit::Length)
+                .input(sym_k("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
+                .input(sym_k("ell", "d", "ld", k), ld, Unit::Length)
+                .input(sym_k("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
                 .result(cap, Unit::Stress)
                 .note(format!("between the transfer and development lengths from the {}: linear", end.name()))
         }
@@ -216,7 +208,14 @@ pub(super) fn development(
 /// the transfer length, then linear to phi_p (the value of Table 21.2.2) at the
 /// development length, measured from where the bond begins. Only strand below the
 /// neutral axis (in tension) governs.
-pub(super) fn phi_development(li: usize, at: &mut [StrandAt], c: f64, phi_p: f64, tr: &mut Trace) -> Vec<(usize, f64)> {
+pub(super) fn phi_development(
+    p: &Prepared,
+    li: usize,
+    at: &mut [StrandAt],
+    c: f64,
+    phi_p: f64,
+    tr: &mut Trace,
+) -> Vec<(usize, f64)> {
     let mut each = Vec::new();
     for (i, a) in at.iter_mut().enumerate() {
         let k = i + 1;
@@ -225,7 +224,8 @@ pub(super) fn phi_development(li: usize, at: &mut [StrandAt], c: f64, phi_p: f64
         }
         let Some(dev) = a.dev.as_mut() else { continue };
         let Some(ratio) = dev.ratio else { continue };
-        let phi = (0.75 + (phi_p - 0.75) * ratio).min(phi_p.max(0.75));
+        let p0 = p.basis.phi_transfer();
+        let phi = (p0 + (phi_p - p0) * ratio).min(phi_p.max(p0));
         dev.phi = Some(phi);
         let (xb, ltr, ld) = (dev.x_bond, dev.transfer_length, dev.development_length);
         tr.rec(|| {
@@ -233,19 +233,23 @@ pub(super) fn phi_development(li: usize, at: &mut [StrandAt], c: f64, phi_p: f64
                 "checks",
                 tag(li, &format!("dev.phi.{k}")),
                 format!("Strength reduction factor, strand not fully developed, layer {k}"),
-                si("phi", "\"dev\"", "phi_dev", k),
+                sym_k("phi", "\"dev\"", "phi_dev", k),
             )
-            .clause("ACI 318-19 21.2.3, Table 21.2.3");
+            .clause(p.basis.cite(Clause::PhiDevelopment));
             if ratio == 0.0 {
                 st.result(phi, Unit::Ratio).note("from where the bond begins to the end of the transfer length")
             } else {
-                st.formula(add(vec![n(0.75), mul(vec![sub(v(0), n(0.75)), div(sub(v(1), v(2)), sub(v(3), v(2)))])]))
+                st.formula(add(vec![n(p0), mul(vec![sub(v(0), n(p0)), div(sub(v(1), v(2)), sub(v(3), v(2)))])]))
                     .input(sy("phi_p", "phi_p"), phi_p, Unit::Ratio)
-                    .input(si("x", "b", "xb", k), xb, Unit::Length)
-                    .input(si("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
-                    .input(si("ell", "d", "ld", k), ld, Unit::Length)
+                    .input(sym_k("x", "b", "xb", k), xb, Unit::Length)
+                    .input(sym_k("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
+                    .input(sym_k("ell", "d", "ld", k), ld, Unit::Length)
                     .result(phi, Unit::Ratio)
-                    .note("linear from 0.75 at the transfer length to φp (Table 21.2.2) at the development length")
+                    .note(format!(
+                        "linear from {} at the transfer length to φp ({}) at the development length",
+                        show(p0),
+                        p.basis.clause(Clause::PhiTableShort)
+                    ))
             }
         });
         each.push((k, phi));
@@ -253,7 +257,7 @@ pub(super) fn phi_development(li: usize, at: &mut [StrandAt], c: f64, phi_p: f64
     each
 }
 
-pub(super) struct Control {
+pub(super) struct Classification {
     pub eps_t: f64,
     pub eps_ty: f64,
     pub class: &'static str,
@@ -261,32 +265,29 @@ pub(super) struct Control {
     pub extreme: String,
 }
 
-/// phi of ACI 318-19 Table 21.2.2 for a net tensile strain (the column for transverse
-/// reinforcement "other" than spirals).
-pub fn phi_of(eps_t: f64, eps_ty: f64) -> (f64, &'static str) {
-    if eps_t >= eps_ty + 0.003 {
-        (0.90, "tension")
-    } else if eps_t <= eps_ty {
-        (0.65, "compression")
-    } else {
-        (0.65 + 0.25 * (eps_t - eps_ty) / 0.003, "transition")
-    }
-}
-
-pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &mut Trace) -> Control {
+pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &mut Trace) -> Classification {
     let ns = p.m.strands.len();
     let Some((j, ext)) =
         model.steel.iter().enumerate().filter(|(_, s)| s.area > 0.0).max_by(|a, b| a.1.d.total_cmp(&b.1.d))
     else {
-        return Control { eps_t: 0.0, eps_ty: 0.002, class: "compression", phi: 0.65, extreme: "none".into() };
+        let eps_ty = p.basis.strand_yield_strain();
+        let (phi, class) = p.basis.phi(0.0, eps_ty);
+        return Classification { eps_t: 0.0, eps_ty, class: class.word(), phi, extreme: "none".into() };
     };
     let is_strand = j < ns;
     let k = if is_strand { j + 1 } else { j - ns + 1 };
     let extreme = if is_strand { format!("strand layer {k}") } else { format!("bar layer {k}") };
-    let eps_t = ext.eps3(st.c, EPS_CU);
+    let eps_t = ext.eps3(st.c, model.ecu);
     let (eps_ty, eps_ty_note) = match ext.law {
-        Law::Strand(_) => (0.002, "0.002 for prestressed reinforcement (21.2.2.1)"),
-        Law::Bar(b) => (b.fy / b.es, "fy / Es of the bar"),
+        Law::Strand(_) => (
+            p.basis.strand_yield_strain(),
+            format!(
+                "{} for prestressed reinforcement ({})",
+                crate::trace::const_text(p.basis.strand_yield_strain()),
+                p.basis.clause(Clause::YieldStrainForClass)
+            ),
+        ),
+        Law::Bar(b) => (b.fy / b.es, "fy / Es of the bar".to_string()),
     };
     tr.rec(|| {
         Step::new(
@@ -295,11 +296,11 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
             "Net tensile strain in the extreme tension steel",
             sy("epsilon_t", "eps_t"),
         )
-        .formula(div(mul(vec![n(EPS_CU), sub(v(0), v(1))]), v(1)))
+        .formula(div(mul(vec![n(model.ecu), sub(v(0), v(1))]), v(1)))
         .input(sy("d_t", "dt"), ext.d, Unit::Length)
         .input(sy("c", "c"), st.c, Unit::Length)
         .result(eps_t, Unit::Strain)
-        .clause("ACI 318-19 21.2.2, R21.2.2")
+        .clause(p.basis.cite(Clause::NetTensileStrain))
         .note(format!("{extreme}; flexural strain only, excluding prestress and decompression strains"))
     });
     tr.rec(|| {
@@ -309,33 +310,33 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
             "Yield strain for the control classification",
             sy("epsilon_\"ty\"", "eps_ty"),
         )
-        .clause("ACI 318-19 21.2.2.1");
+        .clause(p.basis.cite(Clause::YieldStrainForClass));
         match ext.law {
             Law::Bar(b) => stp
                 .formula(div(v(0), v(1)))
                 .input(sy("f_y", "fy"), b.fy, Unit::Stress)
                 .input(sy("E_s", "Es"), b.es, Unit::Stress)
                 .result(eps_ty, Unit::Strain)
-                .note(eps_ty_note),
-            Law::Strand(_) => stp.result(eps_ty, Unit::Strain).note(eps_ty_note),
+                .note(eps_ty_note.clone()),
+            Law::Strand(_) => stp.result(eps_ty, Unit::Strain).note(eps_ty_note.clone()),
         }
     });
-    let (phi, class) = phi_of(eps_t, eps_ty);
+    let (phi, class) = p.basis.phi(eps_t, eps_ty);
     tr.rec(|| {
         let stp = Step::new("checks", tag(li, "phi_f"), "Strength reduction factor for flexure", sy("phi_f", "phi_f"))
-            .clause("ACI 318-19 Table 21.2.2 (transverse reinforcement: other)");
+            .clause(p.basis.cite(Clause::PhiTable));
         match class {
-            "transition" => stp
+            Control::Transition => stp
                 .formula(add(vec![n(0.65), mul(vec![n(0.25), div(sub(v(0), v(1)), n(0.003))])]))
                 .input(sy("epsilon_t", "eps_t"), eps_t, Unit::Strain)
                 .input(sy("epsilon_\"ty\"", "eps_ty"), eps_ty, Unit::Strain)
                 .result(phi, Unit::Ratio)
                 .note("transition zone: εty < εt < εty + 0.003"),
-            "tension" => stp.result(phi, Unit::Ratio).note("tension-controlled: εt ≥ εty + 0.003"),
+            Control::Tension => stp.result(phi, Unit::Ratio).note("tension-controlled: εt ≥ εty + 0.003"),
             _ => stp.result(phi, Unit::Ratio).note("compression-controlled: εt ≤ εty"),
         }
     });
-    Control { eps_t, eps_ty, class, phi, extreme }
+    Classification { eps_t, eps_ty, class: class.word(), phi, extreme }
 }
 
 /// Cracking moment (shown units), ACI 318-19 with the section moduli of the precast unit
@@ -428,8 +429,9 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("S_b", "Sb"), sb, Unit::Modulus)
                     .result(mcr, Unit::Moment)
                     .clause(format!(
-                        "ACI 318-19 {}, 19.2.3 (PCI Design Handbook form for composite members)",
-                        minimum_clause(p)
+                        "{}, {} (PCI Design Handbook form for composite members)",
+                        p.basis.cite(Clause::MinimumStrength { slab: is_slab(p.m) }),
+                        p.basis.clause(Clause::CrackingMoment)
                     ))
                     .note(if cracked_first {
                         "Mnc: moment on the precast unit before the topping acts. Mnc exceeds Sb (fr + fpe): the precast unit cracks before the topping acts, and this formula does not apply"
@@ -448,31 +450,28 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("f_r", "fr"), fr, Unit::Stress)
                     .input(sy("f_\"pe\"", "fpe"), fpe, Unit::Stress)
                     .result(mcr, Unit::Moment)
-                    .clause(format!("ACI 318-19 {}, 19.2.3", minimum_clause(p)))
+                    .clause(format!(
+                        "{}, {}",
+                        p.basis.cite(Clause::MinimumStrength { slab: is_slab(p.m) }),
+                        p.basis.clause(Clause::CrackingMoment)
+                    ))
             });
             (mcr, false)
         }
     }
 }
 
-/// The minimum-flexural-strength clause: 7.6.2.1 for one-way slabs, 9.6.2.1 for beams.
-fn minimum_clause(p: &Prepared) -> &'static str {
-    if is_slab(p.m) { "7.6.2.1" } else { "9.6.2.1" }
-}
-
 pub(super) fn minimum(p: &Prepared, li: usize, mcr: f64, phi_mn: f64, mu: f64, tr: &mut Trace) -> MinReinforcement {
-    let code = super::code(p.sys);
-    let (clause, waiver_clause) = if is_slab(p.m) {
-        (format!("{code} 7.6.2.1"), format!("{code} 7.6.2.2"))
-    } else {
-        (format!("{code} 9.6.2.1"), format!("{code} 9.6.2.2"))
-    };
-    let required = 1.2 * mcr;
+    let slab = is_slab(p.m);
+    let clause = p.basis.cite(Clause::MinimumStrength { slab });
+    let waiver_clause = p.basis.cite(Clause::MinimumWaiver { slab });
+    let (k_min, k_waive) = (p.basis.minimum_factor(), p.basis.waiver_factor());
+    let required = k_min * mcr;
     let ok = phi_mn >= required;
-    let waiver_flexure = phi_mn >= 2.0 * mu;
+    let waiver_flexure = phi_mn >= k_waive * mu;
     tr.rec(|| {
         Step::new("cracking", tag(li, "min"), "Minimum flexural strength required", sy("1.2 M_\"cr\"", "1.2Mcr"))
-            .formula(mul(vec![n(1.2), v(0)]))
+            .formula(mul(vec![n(k_min), v(0)]))
             .input(sy("M_\"cr\"", "Mcr"), mcr, Unit::Moment)
             .result(required, Unit::Moment)
             .clause(clause.clone())
@@ -528,8 +527,13 @@ pub(super) fn approximate(
             if !a.active {
                 return Err(format!("strand layer {} is debonded here", i + 1));
             }
-            if s.fse < 0.5 * s.fpu {
-                return Err(format!("fse of strand layer {} is below 0.5 fpu (20.3.2.3)", i + 1));
+            if s.fse < p.basis.approximate_min_fse() * s.fpu {
+                return Err(format!(
+                    "fse of strand layer {} is below {} fpu ({})",
+                    i + 1,
+                    crate::trace::const_text(p.basis.approximate_min_fse()),
+                    p.basis.cite(Clause::ApproximateFps)
+                ));
             }
             if a.d <= st.c {
                 return Err(format!(
@@ -552,7 +556,7 @@ pub(super) fn approximate(
                 Step::new(
                     "approximate",
                     tag(li, "approx"),
-                    "Approximate strand stress of the code (20.3.2.3.1)",
+                    format!("Approximate strand stress of the code ({})", p.basis.clause(Clause::ApproximateFps)),
                     sy("f_\"ps,approx\"", "fps,approx"),
                 )
                 .result(f64::NAN, Unit::Stress)
@@ -567,13 +571,7 @@ pub(super) fn approximate(
     let ratio = layers.iter().map(|(s, _)| s.fpy / s.fpu).fold(f64::INFINITY, f64::min);
     // the condition of 20.3.2.3.1, shown with the result
     let fse_ratio = layers.iter().map(|(s, _)| s.fse / s.fpu).fold(f64::INFINITY, f64::min);
-    let gamma_p = if ratio >= 0.9 {
-        0.28
-    } else if ratio >= 0.85 {
-        0.40
-    } else {
-        0.55
-    };
+    let (gamma_p, gamma_bound) = p.basis.gamma_p(ratio);
     let aps: f64 = layers.iter().map(|(s, _)| s.total_area()).sum();
     let dp = layers.iter().map(|(s, a)| s.total_area() * a.d).sum::<f64>() / aps;
     // tension bars: below mid-depth; compression bars are not counted (rho' = 0, always
@@ -611,7 +609,7 @@ pub(super) fn approximate(
                 .input(sy("beta_1", "beta1"), b1, Unit::Ratio)
                 .input(sy("rho_p", "rho_p"), rho_p, Unit::Ratio)
                 .input(sy("f'_c", "f'c"), fc, Unit::Stress)
-                .clause("ACI 318-19 20.3.2.3.1");
+                .clause(p.basis.cite(Clause::ApproximateFps));
             let mut bracket = vec![div(mul(vec![v(3), v(0)]), v(4))];
             if as_ > 0.0 {
                 stp = stp.input(sy("d", "d"), d_s, Unit::Length).input(sy("d_p", "dp"), dp, Unit::Length).input(sy("f_y", "fy"), fy, Unit::Stress).input(sy("rho", "rho"), rho, Unit::Ratio);
@@ -619,9 +617,9 @@ pub(super) fn approximate(
             }
             let formula = mul(vec![v(0), sub(n(1.0), mul(vec![div(v(1), v(2)), if bracket.len() == 1 { bracket.remove(0) } else { add(bracket) }]))]);
             stp.formula(formula).result(fps, Unit::Stress).note(format!(
-                "applies: fse ≥ 0.5 fpu in every layer (least fse/fpu = {}); γp = {gamma_p} for fpy/fpu ≥ {}; ρp = Aps/(b dp) with b = {} and Aps = {}; compression steel not counted (ρ' = 0){}",
+                "applies: fse ≥ {} fpu in every layer (least fse/fpu = {}); γp = {gamma_p} for fpy/fpu ≥ {gamma_bound}; ρp = Aps/(b dp) with b = {} and Aps = {}; compression steel not counted (ρ' = 0){}",
+                crate::trace::const_text(p.basis.approximate_min_fse()),
                 show(fse_ratio),
-                if gamma_p == 0.28 { "0.90" } else if gamma_p == 0.40 { "0.85" } else { "0.80" },
                 show(width),
                 show(apsw),
                 if left_out > 0 { ", nor untensioned strand in the compression zone" } else { "" }

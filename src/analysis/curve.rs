@@ -14,8 +14,10 @@
 //! compressed concrete fibre reaches the crushing strain or a strand reaches its rupture
 //! strain, whichever comes first.
 
+use super::prepare::{Prepared, prepare};
+use super::prestress::strands_at;
 use super::roots::{bracket, brent};
-use super::{Prepared, prepare, strands_at};
+use crate::basis::Basis;
 use crate::error::{Error, Result};
 use crate::input::model::{Location, Member};
 use crate::material::concrete::{Curve as ConcreteCurve, Law};
@@ -23,7 +25,6 @@ use crate::material::steel::Bar;
 use crate::material::strand::Curve as StrandCurve;
 use crate::section::Region;
 use crate::trace::Trace;
-use crate::units::System;
 use serde::Serialize;
 
 /// Concrete strips: centroid heights and areas.
@@ -316,16 +317,17 @@ fn build(p: &Prepared, loc: &Location, li: usize) -> Fibres {
 }
 
 /// The moment-curvature curve of a member at one of its locations (by index).
-pub fn moment_curvature(m: &Member, sys: System, li: usize) -> Result<CurveResult> {
-    moment_curvature_points(m, sys, li, m.curve.points)
+pub fn moment_curvature(m: &Member, basis: &'static dyn Basis, li: usize) -> Result<CurveResult> {
+    moment_curvature_points(m, basis, li, m.curve.points)
 }
 
 /// The curve with `points` points after the march (at least 2). The march, and so the
 /// end and what ended the curve, do not depend on it; the peak is that of the points.
-pub fn moment_curvature_points(m: &Member, sys: System, li: usize, points: usize) -> Result<CurveResult> {
+pub fn moment_curvature_points(m: &Member, basis: &'static dyn Basis, li: usize, points: usize) -> Result<CurveResult> {
+    let sys = basis.units();
     let loc = m.locations.get(li).ok_or_else(|| Error::Usage(format!("member {} has no location {}", m.id, li + 1)))?;
     let mut tr = Trace::new(false);
-    let p = prepare(m, sys, &mut tr)?;
+    let p = prepare(m, basis, &mut tr)?;
     let f = build(&p, loc, li);
     let opts = m.curve;
     let h = m.total_height();

@@ -202,19 +202,31 @@ pub fn parse(src: &Source) -> Result<Package> {
         if let Some(first) = message.lines().next() {
             message = first.to_string();
         }
+        let mut span = e.span();
         let allowed = if message.contains("recursion") {
             message = format!("the file nests tables or arrays too deeply ({message})");
             Some("tables and arrays nested as in a package (a few levels)".to_string())
         } else if message.starts_with("unknown field") {
             let (m, allowed) = unknown_key(&message);
+            // a shape's keys are read after its table: point at the key's own line
+            if let (Some(s), Some(given)) = (&span, message.split('`').nth(1)) {
+                span = key_in_table(&src.text, s.start, given).or(span);
+            }
             message = m;
             allowed
+        } else if message.starts_with("unknown variant") {
+            let (m, allowed) = unknown_value(&message, span.as_ref().map(|s| line_key(&src.text, s.start)));
+            message = m;
+            allowed
+        } else if message == "missing field `shape`" {
+            Some(format!("shape = {}", validate::SHAPES))
         } else {
             Some("TOML as in the starter file that `strainsheet new` writes".to_string())
         };
         // name the key for unknown-field errors and missing tables
-        let key = e.span().map(|s| key_at(&src.text, s.start)).unwrap_or_default();
-        Error::Input(vec![diagnostic(src, e.span(), key, message, allowed)])
+        let key = span.as_ref().map(|s| key_at(&src.text, s.start)).filter(|k| !k.is_empty());
+        let key = key.or_else(|| span.as_ref().map(|s| line_key(&src.text, s.start))).unwrap_or_default();
+        Error::Input(vec![diagnostic(src, span, key, message, allowed)])
     })?;
     let sys = system_of(src, &file)?;
     let mut cx = validate::Ctx::new(sys);
@@ -296,6 +308,51 @@ fn unknown_key(message: &str) -> (String, Option<String>) {
         None if known.is_empty() => (format!("unknown key `{given}`: this table takes no keys"), None),
         None => (format!("unknown key `{given}`"), Some(format!("one of {list}"))),
     }
+}
+
+/// A value the schema does not know for a key with a fixed set of values (a shape):
+/// the value, the nearest known one, and the values allowed.
+fn unknown_value(message: &str, key: Option<String>) -> (String, Option<String>) {
+    let names: Vec<&str> = message.split('`').skip(1).step_by(2).collect();
+    let Some((&given, known)) = names.split_first() else {
+        return (message.to_string(), None);
+    };
+    let key = key.filter(|k| !k.is_empty()).unwrap_or_else(|| "the value".into());
+    let nearest = known
+        .iter()
+        .map(|k| (strsim::jaro_winkler(given, k), *k))
+        .filter(|(score, _)| *score >= 0.8)
+        .max_by(|a, b| a.0.total_cmp(&b.0))
+        .map(|(_, k)| format!(": did you mean {k:?}?"))
+        .unwrap_or_default();
+    let list = known.iter().map(|k| format!("{k:?}")).collect::<Vec<_>>().join(", ");
+    (format!("{key} = {given:?} is not one this version knows{nearest}"), Some(format!("one of {list}")))
+}
+
+/// The span of `key = ...` within the table whose header is at `offset` (up to the next
+/// table header).
+fn key_in_table(text: &str, offset: usize, key: &str) -> Option<std::ops::Range<usize>> {
+    let mut at = text[offset..].find('\n').map(|k| offset + k + 1)?;
+    while at < text.len() {
+        let line = &text[at..text[at..].find('\n').map_or(text.len(), |k| at + k)];
+        let trimmed = line.trim_start();
+        if trimmed.starts_with('[') {
+            return None;
+        }
+        let indent = line.len() - trimmed.len();
+        let rest = trimmed.strip_prefix(key);
+        if rest.is_some_and(|r| r.trim_start().starts_with('=')) {
+            return Some(at + indent..at + indent + key.len());
+        }
+        at += line.len() + 1;
+    }
+    None
+}
+
+/// The bare key at the start of the line holding a byte offset.
+fn line_key(text: &str, offset: usize) -> String {
+    let start = text[..offset.min(text.len())].rfind('\n').map_or(0, |k| k + 1);
+    key_at(text, start + text[start..].len() - text[start..].trim_start().len())
 }
 
 /// The bare key written at a byte offset (for messages about unknown keys).

@@ -78,7 +78,9 @@ pub struct Meta {
     pub subject: String,
     pub revision: String,
     pub date: Date,
+    /// The design basis as cited ("ACI 318-19").
     pub basis: String,
+    pub basis_id: crate::basis::BasisId,
     pub paper: Paper,
     pub notes: Option<String>,
     pub revisions: Vec<Revision>,
@@ -358,4 +360,11 @@ pub struct Package {
     pub meta: Meta,
     pub members: Vec<Member>,
     pub warnings: Vec<Warning>,
+}
+
+impl Package {
+    /// The design basis every member is checked against.
+    pub fn basis(&self) -> &'static dyn crate::basis::Basis {
+        self.meta.basis_id.get(self.units)
+    }
 }

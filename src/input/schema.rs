@@ -125,32 +125,58 @@ pub struct Concrete {
     pub curve: Option<String>,
 }
 
+/// The section, by shape: each shape takes its own dimensions (and a key of another
+/// shape is refused as unknown, with the nearest known key). The dimensions are read as
+/// optional so that a missing one is named with what the shape needs.
 #[derive(Debug, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct Section {
-    pub shape: Option<String>,
-    pub width: Option<Q>,
-    pub height: Option<Q>,
-    pub flange_width: Option<Q>,
-    pub flange_thickness: Option<Q>,
-    pub web_width: Option<Q>,
-    pub ledge_width: Option<Q>,
-    pub ledge_height: Option<Q>,
-    pub ledges: Option<i64>,
-    pub stem_spacing: Option<Q>,
-    pub stem_width_top: Option<Q>,
-    pub stem_width_bottom: Option<Q>,
-    pub top_flange_width: Option<Q>,
-    pub top_flange_thickness: Option<Q>,
-    pub top_taper: Option<Q>,
-    pub bottom_flange_width: Option<Q>,
-    pub bottom_flange_thickness: Option<Q>,
-    pub bottom_taper: Option<Q>,
-    pub void_count: Option<i64>,
-    pub void_diameter: Option<Q>,
-    pub void_center_height: Option<Q>,
-    pub outline: Option<Vec<Vec<f64>>>,
-    pub holes: Option<Vec<Vec<Vec<f64>>>>,
+#[serde(tag = "shape", rename_all = "snake_case", deny_unknown_fields)]
+pub enum Section {
+    Rectangle {
+        width: Option<Q>,
+        height: Option<Q>,
+    },
+    Tee {
+        flange_width: Option<Q>,
+        flange_thickness: Option<Q>,
+        web_width: Option<Q>,
+        height: Option<Q>,
+    },
+    InvertedTee {
+        web_width: Option<Q>,
+        height: Option<Q>,
+        ledge_width: Option<Q>,
+        ledge_height: Option<Q>,
+        ledges: Option<i64>,
+    },
+    DoubleTee {
+        flange_width: Option<Q>,
+        flange_thickness: Option<Q>,
+        height: Option<Q>,
+        stem_spacing: Option<Q>,
+        stem_width_top: Option<Q>,
+        stem_width_bottom: Option<Q>,
+    },
+    IGirder {
+        height: Option<Q>,
+        top_flange_width: Option<Q>,
+        top_flange_thickness: Option<Q>,
+        top_taper: Option<Q>,
+        web_width: Option<Q>,
+        bottom_flange_width: Option<Q>,
+        bottom_flange_thickness: Option<Q>,
+        bottom_taper: Option<Q>,
+    },
+    HollowCore {
+        width: Option<Q>,
+        height: Option<Q>,
+        void_count: Option<i64>,
+        void_diameter: Option<Q>,
+        void_center_height: Option<Q>,
+    },
+    Polygon {
+        outline: Option<Vec<Vec<f64>>>,
+        holes: Option<Vec<Vec<Vec<f64>>>>,
+    },
 }
 
 #[derive(Debug, Deserialize)]

@@ -181,7 +181,7 @@ fn values(l: &LocationResult, sys: System) -> ValuesShown {
         approx_diff: printed_or_dash(l.approximate.difference),
         other_mn: printed_or_dash(l.other_block.as_ref().map(|o| o.mn)),
         max_strand_strain: strain(l.max_strand_strain),
-        eps_cu: const_text(crate::material::concrete::EPS_CU),
+        eps_cu: const_text(l.eps_cu),
         x_label: match l.x {
             Some(x) => format!("x = {} {}", printed(x), sys.names().length),
             None => "strands taken as fully developed".into(),

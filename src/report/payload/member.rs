@@ -8,9 +8,10 @@ use super::printed;
 use super::step::{StepPayload, step};
 use crate::analysis::curve::CurveResult;
 use crate::analysis::{MemberResult, SectionResult};
+use crate::basis::Basis;
 use crate::input::model::{BarLayer, Default, Kind, Member, Profile, StrandLayer};
 use crate::section::shapes::Shape;
-use crate::units::{System, UnitNames};
+use crate::units::UnitNames;
 use serde::Serialize;
 
 /// A member in the payload.
@@ -96,7 +97,8 @@ pub struct BarRow {
 }
 
 /// A member as the payload holds it.
-pub fn member<'a>(m: &'a MemberResult, input: &'a Member, sys: System) -> MemberPayload<'a> {
+pub fn member<'a>(m: &'a MemberResult, input: &'a Member, basis: &dyn Basis) -> MemberPayload<'a> {
+    let sys = basis.units();
     let u = sys.names();
     let length = |v: f64| format!("{} {}", printed(v), u.length);
     let g = &m.section.geometry;
@@ -114,7 +116,7 @@ pub fn member<'a>(m: &'a MemberResult, input: &'a Member, sys: System) -> Member
             width: length(g.x_max - g.x_min),
         },
         defaults: &input.defaults,
-        input_rows: input_rows(input, sys),
+        input_rows: input_rows(input, basis),
         vertices: vertices(&input.shape),
         strands: input.strands.iter().enumerate().map(|(i, s)| strand_row(i, s, input, u)).collect(),
         bars: input.bars.iter().enumerate().map(|(i, b)| bar_row(i, b)).collect(),
@@ -131,8 +133,8 @@ pub fn member<'a>(m: &'a MemberResult, input: &'a Member, sys: System) -> Member
 }
 
 /// The input summary of a member.
-fn input_rows(input: &Member, sys: System) -> Vec<(&'static str, String)> {
-    let u = sys.names();
+fn input_rows(input: &Member, basis: &dyn Basis) -> Vec<(&'static str, String)> {
+    let u = basis.units().names();
     let mut rows = vec![("Section", input.shape.name().to_string())];
     if let Shape::HollowCore { void_count, .. } = input.shape {
         rows.push(("Voids", format!("{void_count} round voids")));
@@ -149,12 +151,12 @@ fn input_rows(input: &Member, sys: System) -> Vec<(&'static str, String)> {
     if let Some(l) = input.length {
         rows.push(("Length, end to end (x from the left end)", format!("{} {}", printed(l), u.length)));
     }
-    let code = crate::analysis::code(sys);
+    let code = basis.name();
     rows.push((
         "Member kind",
         match input.kind {
-            Kind::Beam => format!("beam ({code} Ch. 9)"),
-            Kind::OneWaySlab => format!("one-way slab ({code} Ch. 7)"),
+            Kind::Beam => format!("beam ({code} {})", basis.member_chapter(false)),
+            Kind::OneWaySlab => format!("one-way slab ({code} {})", basis.member_chapter(true)),
         },
     ));
     rows

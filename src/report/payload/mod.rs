@@ -196,7 +196,8 @@ pub struct Provenance<'a> {
 pub fn build<'a>(pkg: &'a Package, src: &Source, a: &'a Analysis, prov: &Provenance) -> Payload<'a> {
     let members = {
         use rayon::prelude::*;
-        a.members.par_iter().zip(&pkg.members).map(|(r, m)| member::member(r, m, pkg.units)).collect()
+        let basis = pkg.basis();
+        a.members.par_iter().zip(&pkg.members).map(|(r, m)| member::member(r, m, basis)).collect()
     };
     Payload {
         head: head(pkg, src, a, prov),

@@ -1,0 +1,258 @@
+//! What the analysis finds: the typed results of a member and of each check location,
+//! as the payload, `check` and the templates read them.
+
+use super::conclusion;
+use crate::input::model::BlockMode;
+use crate::section::{P, Props};
+use crate::trace::Step;
+use crate::units::System;
+use serde::Serialize;
+
+/// Section properties as shown.
+#[derive(Debug, Clone, Serialize)]
+pub struct PropsOut {
+    pub area: f64,
+    /// Height of the centroid above the bottom.
+    pub yb: f64,
+    pub i: f64,
+    /// Distances from the centroid to the top and bottom fibres.
+    pub ct: f64,
+    pub cb: f64,
+    pub st: f64,
+    pub sb: f64,
+}
+
+impl PropsOut {
+    pub(super) fn of(p: &Props) -> PropsOut {
+        PropsOut { area: p.area, yb: p.cb(), i: p.i, ct: p.ct(), cb: p.cb(), st: p.st(), sb: p.sb() }
+    }
+}
+
+/// What the package sketch needs to draw the section.
+#[derive(Debug, Clone, Serialize)]
+pub struct Geometry {
+    pub outline: Vec<P>,
+    pub holes: Vec<Vec<P>>,
+    /// Topping rectangle [x0, y0, x1, y1].
+    pub topping: Option<[f64; 4]>,
+    pub x_min: f64,
+    pub x_max: f64,
+    pub y_min: f64,
+    pub y_max: f64,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct SectionResult {
+    pub shape: &'static str,
+    pub precast_height: f64,
+    pub height: f64,
+    pub precast: PropsOut,
+    /// Transformed composite section (topping at the modular ratio).
+    pub composite: Option<PropsOut>,
+    pub modular_ratio: Option<f64>,
+    pub ec: f64,
+    pub fr: f64,
+    pub ec_topping: Option<f64>,
+    pub beta1: f64,
+    pub geometry: Geometry,
+    /// Not symmetric about a vertical axis (an L-beam): bending about a horizontal axis
+    /// with lateral restraint is assumed, and the package says so.
+    pub asymmetric: bool,
+}
+
+/// A steel layer's result at a location.
+#[derive(Debug, Clone, Serialize)]
+pub struct LayerOut {
+    pub kind: &'static str,
+    /// 1-based within its kind.
+    pub index: usize,
+    /// "6 × 1/2 in" or "3 #5".
+    pub label: String,
+    pub count: u32,
+    /// Area of one strand or bar.
+    pub unit_area: f64,
+    pub area: f64,
+    /// Depth below the top of the section (topping included).
+    pub depth: f64,
+    pub eps1: Option<f64>,
+    pub eps2: Option<f64>,
+    pub eps3: f64,
+    pub eps: f64,
+    pub stress: f64,
+    pub force: f64,
+    /// Effective prestress at this location (strand).
+    pub fse: Option<f64>,
+    /// Stress limit of a strand not fully developed here.
+    pub cap: Option<f64>,
+    /// Share of the layer inside the stress block (its displaced concrete deducted).
+    pub in_block: f64,
+    /// Whether the layer carries stress here (a debonded strand does not).
+    pub active: bool,
+    /// Points for the sketch.
+    pub points: Vec<P>,
+    pub diameter: f64,
+}
+
+/// Development of one strand layer at a location (ACI 318-19 25.4.8).
+#[derive(Debug, Clone, Serialize)]
+pub struct Development {
+    pub layer: usize,
+    /// The nearer member end, from which transfer, development and debonding are measured.
+    pub end: crate::input::model::End,
+    /// Distance from that end.
+    pub x_end: f64,
+    /// Distance from where bonding begins (x_end less the debonded length).
+    pub x_bond: f64,
+    pub debonded_length: f64,
+    pub transfer_length: f64,
+    pub development_length: f64,
+    pub doubled: bool,
+    pub fse_here: f64,
+    pub fpx: Option<f64>,
+    /// Position between the transfer and development lengths (0 within the transfer
+    /// length), for strand not fully developed here.
+    pub ratio: Option<f64>,
+    pub phi: Option<f64>,
+    pub state: &'static str,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct MinReinforcement {
+    pub clause: String,
+    pub required: f64,
+    pub ok: bool,
+    /// phi Mn >= 2 Mu: the flexural half of the waiver clause holds.
+    pub waiver_flexure: bool,
+    pub waiver_clause: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Approximate {
+    pub applicable: bool,
+    pub reason: Option<String>,
+    pub gamma_p: Option<f64>,
+    pub rho_p: Option<f64>,
+    pub fps: Option<f64>,
+    pub a: Option<f64>,
+    pub flanged: bool,
+    pub mn: Option<f64>,
+    /// (approximate - strain compatibility) / strain compatibility, per cent.
+    pub difference: Option<f64>,
+}
+
+/// The result with the other stress-block option, for comparison.
+#[derive(Debug, Clone, Serialize)]
+pub struct OtherBlock {
+    pub block: BlockMode,
+    pub c: f64,
+    pub a: f64,
+    pub mn: f64,
+}
+
+/// The precast unit's extreme fibre stresses under the effective prestress alone
+/// (tension positive), against fr and f'c.
+#[derive(Debug, Clone, Serialize)]
+pub struct PrestressAloneOut {
+    pub top: f64,
+    pub bottom: f64,
+    pub fr: f64,
+    pub fc: f64,
+    pub top_cracks: bool,
+    pub over_compressed: bool,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct LocationResult {
+    pub name: String,
+    pub x: Option<f64>,
+    pub mu: f64,
+    pub pe: f64,
+    pub e: f64,
+    pub c: f64,
+    pub a: f64,
+    pub beta1: f64,
+    /// The concrete strain at the compression face at nominal strength.
+    pub eps_cu: f64,
+    pub block: Option<BlockMode>,
+    pub zone: &'static str,
+    pub cc: f64,
+    pub dc: f64,
+    pub strands: Vec<LayerOut>,
+    pub bars: Vec<LayerOut>,
+    pub iterations: Vec<super::solve::Trial>,
+    /// |C - T| / C at the solution.
+    pub closure: f64,
+    pub mn: f64,
+    pub eps_t: f64,
+    pub eps_ty: f64,
+    pub extreme: String,
+    pub control: &'static str,
+    pub phi: f64,
+    pub phi_flexure: f64,
+    pub phi_development: Option<f64>,
+    pub phi_mn: f64,
+    pub ratio: f64,
+    pub strength_ok: bool,
+    pub mcr: f64,
+    /// The precast unit cracks under the non-composite moment alone.
+    pub cracked_before_composite: bool,
+    pub min_reinforcement: MinReinforcement,
+    pub approximate: Approximate,
+    pub development: Vec<Development>,
+    pub max_strand_strain: f64,
+    /// The largest strain of strand not fully developed here (held at fpx).
+    pub capped_strain: f64,
+    pub rupture_risk: bool,
+    pub prestress_alone: PrestressAloneOut,
+    pub other_block: Option<OtherBlock>,
+    /// Every check met, perhaps on open conditions (see `status`).
+    pub pass: bool,
+    pub status: conclusion::Status,
+    /// Open conditions and cautions: the result holds only if they are settled.
+    pub conditions: Vec<conclusion::Condition>,
+    pub conclusion: String,
+    pub notes: Vec<String>,
+    /// Rings of the compression block for the sketch.
+    pub block_rings: Vec<Vec<P>>,
+    /// Whether strain compatibility was solved (false where there is no tension steel).
+    pub solved: bool,
+    pub trace: Vec<Step>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct MemberResult {
+    pub id: String,
+    pub section: SectionResult,
+    pub locations: Vec<LocationResult>,
+    /// Index of the governing location (highest Mu / phi Mn).
+    pub governing: usize,
+    pub pass: bool,
+    pub status: conclusion::Status,
+    pub trace: Vec<Step>,
+    /// The moment-curvature response at the governing location (filled by
+    /// [`analyze_full`]), or why it could not be found.
+    pub curve: Option<super::curve::CurveResult>,
+    pub curve_error: Option<String>,
+}
+
+impl MemberResult {
+    pub fn governing(&self) -> &LocationResult {
+        &self.locations[self.governing]
+    }
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Analysis {
+    pub units: System,
+    pub members: Vec<MemberResult>,
+}
+
+impl Analysis {
+    pub fn pass(&self) -> bool {
+        self.members.iter().all(|m| m.pass)
+    }
+    /// The package's result: the worst of its members'.
+    pub fn status(&self) -> conclusion::Status {
+        self.members.iter().fold(conclusion::Status::Pass, |s, m| s.and(m.status))
+    }
+}

@@ -1,0 +1,521 @@
+//! The steel of a member: strand layers (level, profile, grade, model, prestress,
+//! debonding) and bar layers, each placed inside the concrete with room to fit.
+
+use super::*;
+
+/// One of several mutually exclusive ways to give a value.
+fn exclusive(cx: &mut Ctx, given: &[(&'static str, bool)], what: &str) -> Option<&'static str> {
+    let set: Vec<&'static str> = given.iter().filter(|(_, g)| *g).map(|(k, _)| *k).collect();
+    match set.len() {
+        1 => Some(set[0]),
+        0 => {
+            let names: Vec<&str> = given.iter().map(|(k, _)| *k).collect();
+            cx.problem("", format!("{what} is missing"), Some(format!("one of {}", names.join(", "))));
+            None
+        }
+        _ => {
+            cx.problem(
+                set[1],
+                format!("{} and {} are both given", set[0], set[1]),
+                Some(format!("only one of them: {what}")),
+            );
+            None
+        }
+    }
+}
+
+/// Checks that steel of a diameter at a depth below the top of the precast fits inside
+/// the concrete: inside the outline, clear of voids and edges, with room for `count`
+/// bars side by side.
+fn check_inside(cx: &mut Ctx, key: &'static str, region: &Region, depth: f64, count: u32, d: f64) -> bool {
+    let top = region.y_top();
+    let h = top - region.y_bot();
+    let len = cx.sys.names().length;
+    // the level as the user wrote it: a height from the bottom or a depth from the top
+    let by_height = key.starts_with("height");
+    let written = if by_height { h - depth } else { depth };
+    if depth - d / 2.0 <= 0.0 || depth + d / 2.0 >= h {
+        cx.problem(
+            key,
+            format!(
+                "{key} = {} {len} puts the steel (diameter {} {len}) outside the concrete of the precast unit, which is {} {len} deep",
+                num(written),
+                num(d),
+                num(h)
+            ),
+            Some(format!(
+                "a {} between {} and {} {len} ({} from the {} of the precast unit)",
+                if by_height { "height" } else { "depth" },
+                num(d / 2.0),
+                num(h - d / 2.0),
+                if by_height { "height" } else { "depth" },
+                if by_height { "bottom" } else { "top" },
+            )),
+        );
+        return false;
+    }
+    let y = top - depth;
+    let room = region.room_at(y, d);
+    let fits = crate::section::side_by_side(&room, d);
+    if fits < u64::from(count) {
+        let w: f64 = room.iter().map(|(a, b)| b - a).sum();
+        let (there, allowed) = if room.is_empty() {
+            (
+                "no concrete spans the steel's whole diameter there".to_string(),
+                "a depth where the section has concrete (not in a void or outside the outline)".to_string(),
+            )
+        } else if room.len() == 1 {
+            (
+                format!("the section has {} {len} there", num(w)),
+                format!("at most {fits} bars or strands of this size at this depth"),
+            )
+        } else {
+            let pieces: Vec<String> = room.iter().map(|(a, b)| crate::trace::show(b - a)).collect();
+            (
+                format!(
+                    "the concrete there lies in {} stretches between voids and edges ({} {len}), with room for {fits} side by side",
+                    room.len(),
+                    pieces.join(", ")
+                ),
+                format!("at most {fits} bars or strands of this size at this depth"),
+            )
+        };
+        cx.problem(
+            key,
+            format!(
+                "{count} of diameter {} {len} need {} {len} of concrete width at {key} = {} {len}; {there}",
+                num(d),
+                num(count as f64 * d),
+                num(written)
+            ),
+            Some(allowed),
+        );
+        return false;
+    }
+    true
+}
+
+pub(super) fn strand_layer(
+    cx: &mut Ctx,
+    s: &raw::Strands,
+    region: &Region,
+    length: Option<f64>,
+    defaults: &mut Vec<Default>,
+) -> Option<StrandLayer> {
+    let sys = cx.sys;
+    let names = sys.names();
+    let h = region.y_top() - region.y_bot();
+    let max = ranges(sys).dim_max;
+    let how = exclusive(
+        cx,
+        &[
+            ("depth", s.depth.is_some()),
+            ("height", s.height.is_some()),
+            ("depth_end", s.depth_end.is_some() || s.depth_harp.is_some()),
+            ("height_end", s.height_end.is_some() || s.height_harp.is_some()),
+        ],
+        "the layer's level (depth from the top of the precast unit, or height from its bottom; harped: depth_end and depth_harp, or height_end and height_harp, with harp_x)",
+    );
+    let lvl = |cx: &mut Ctx, key: &'static str, q: &Option<Q>| cx.ranged(key, q, Dim::Length, 0.0, max, true);
+    let profile = match how? {
+        "depth" => Profile::Straight { depth: lvl(cx, "depth", &s.depth)? },
+        "height" => Profile::Straight { depth: h - lvl(cx, "height", &s.height)? },
+        harped => {
+            let (end, harp, e_key, h_key) = if harped == "depth_end" {
+                (&s.depth_end, &s.depth_harp, "depth_end", "depth_harp")
+            } else {
+                (&s.height_end, &s.height_harp, "height_end", "height_harp")
+            };
+            let e = cx.required(e_key, end.as_ref(), "the level at the member end").cloned();
+            let hp = cx.required(h_key, harp.as_ref(), "the level at the harp point").cloned();
+            let e = lvl(cx, e_key, &e)?;
+            let hp = lvl(cx, h_key, &hp)?;
+            let (de, dh) = if harped == "depth_end" { (e, hp) } else { (h - e, h - hp) };
+            let hx = cx.required("harp_x", s.harp_x.as_ref(), "the harp point's distance from the member end").cloned();
+            match (&s.harp_x2, length) {
+                (Some(_), None) => {
+                    cx.problem(
+                        "harp_x2",
+                        "harp_x2 is given but the member has no length",
+                        Some("give the member's length (end to end), or leave harp_x2 out".to_string()),
+                    );
+                    return None;
+                }
+                (Some(_), Some(len)) => {
+                    let hx = cx.ranged("harp_x", &hx, Dim::Length, 0.0, len, true)?;
+                    let hx2 = cx.ranged("harp_x2", &s.harp_x2, Dim::Length, 0.0, len, true)?;
+                    if !(hx2 > hx && hx2 < len) {
+                        cx.problem(
+                            "harp_x2",
+                            format!(
+                                "harp_x2 = {} is not between harp_x = {} and the member's length {}",
+                                cx.shown(Dim::Length, hx2),
+                                cx.shown(Dim::Length, hx),
+                                cx.shown(Dim::Length, len)
+                            ),
+                            Some(
+                                "the second harp point's distance from the left end: harp_x < harp_x2 < length"
+                                    .to_string(),
+                            ),
+                        );
+                        return None;
+                    }
+                    Profile::Harped {
+                        depth_end: de,
+                        depth_harp: dh,
+                        harp_x: hx,
+                        harp_x2: Some(hx2),
+                        harp_x2_given: true,
+                    }
+                }
+                (None, _) => {
+                    let limit = length.map_or(ranges(sys).length_max, |l| l / 2.0);
+                    let hx = cx.ranged("harp_x", &hx, Dim::Length, 0.0, limit, true)?;
+                    Profile::Harped {
+                        depth_end: de,
+                        depth_harp: dh,
+                        harp_x: hx,
+                        harp_x2: length.map(|l| l - hx),
+                        harp_x2_given: false,
+                    }
+                }
+            }
+        }
+    };
+    for (key, given) in [("harp_x", s.harp_x.is_some()), ("harp_x2", s.harp_x2.is_some())] {
+        if given && matches!(profile, Profile::Straight { .. }) {
+            cx.problem(
+                key,
+                format!("{key} is given for a straight layer"),
+                Some(format!("{key} only with depth_end/depth_harp or height_end/height_harp")),
+            );
+            return None;
+        }
+    }
+    let count = cx.count("count", s.count, 1, limits::STRANDS_PER_LAYER);
+    let count = cx.required("count", count, "the number of strands in the layer")?;
+
+    let fpu = match &s.fpu {
+        Some(_) => {
+            let (lo, hi) = match sys {
+                System::Us => (150.0, 350.0),
+                System::Si => (1000.0, 2400.0),
+            };
+            cx.ranged("fpu", &s.fpu, Dim::Stress, lo, hi, false)?
+        }
+        None => {
+            let v = match sys {
+                System::Us => 270.0,
+                System::Si => 1860.0,
+            };
+            defaults.push(Default {
+                key: "strands.fpu".into(),
+                text: format!("fpu = {} {} (Grade {})", num(v), names.stress, num(v)),
+            });
+            v
+        }
+    };
+    let Some(grade) = Grade::of(fpu, sys) else {
+        let allowed = match sys {
+            System::Us => "250 or 270 ksi (the grades the strand models were fitted to)",
+            System::Si => "1725 or 1860 MPa (the grades the strand models were fitted to)",
+        };
+        cx.problem(
+            "fpu",
+            format!("fpu = {} {}: no strand model here is fitted to this grade", num(fpu), names.stress),
+            Some(allowed.to_string()),
+        );
+        return None;
+    };
+    let model = match s.model.as_deref() {
+        None => {
+            defaults.push(Default {
+                key: "strands.model".into(),
+                text: "strand model \"pci\" (PCI Design Handbook two-branch curve)".into(),
+            });
+            Model::Pci
+        }
+        Some("pci") => Model::Pci,
+        Some("power") => Model::Power,
+        Some(other) => {
+            cx.problem(
+                "model",
+                format!("model = {other:?} is not a strand model this version knows"),
+                Some("\"pci\" or \"power\"".to_string()),
+            );
+            return None;
+        }
+    };
+    if StrandCurve::new(model, grade, sys).is_none() {
+        cx.problem(
+            "model",
+            format!("model = \"power\" with fpu = {} {}: the power formula is fitted to Grade 270 low-relaxation strand only", num(fpu), names.stress),
+            Some("model = \"pci\" for Grade 250 strand, or Grade 270 strand".to_string()),
+        );
+        return None;
+    }
+
+    // size: diameter (area from the table, or given), or area alone (a standard size)
+    let diameter = match &s.diameter {
+        Some(_) => Some(cx.ranged("diameter", &s.diameter, Dim::Length, 0.0, max / 10.0, true)?),
+        None => None,
+    };
+    let area = match &s.area {
+        Some(_) => Some(cx.ranged("area", &s.area, Dim::Area, 0.0, max, true)?),
+        None => None,
+    };
+    let (diameter, area, size) = match (diameter, area) {
+        (Some(d), a) => match catalog::strand_by_diameter(d, grade, sys) {
+            Some(std) => {
+                if let Some(a) = a
+                    && (a - std.area).abs() > 0.02 * std.area
+                {
+                    cx.warn(
+                        "area",
+                        format!(
+                            "area {} {} differs from the standard {} {} of {} strand",
+                            num(a),
+                            names.area,
+                            num(std.area),
+                            names.area,
+                            std.name
+                        ),
+                    );
+                }
+                (std.diameter, a.unwrap_or(std.area), Some(std.name))
+            }
+            None => match a {
+                Some(a) => (d, a, None),
+                None => {
+                    cx.problem(
+                        "diameter",
+                        format!(
+                            "diameter = {} {} is not a standard size of this strand grade; its area is unknown",
+                            num(d),
+                            names.length
+                        ),
+                        Some(format!("a standard diameter: {}; or give area too", catalog::strand_names(grade, sys))),
+                    );
+                    return None;
+                }
+            },
+        },
+        (None, Some(a)) => match catalog::strand_by_area(a, grade, sys) {
+            Some(std) => (std.diameter, a, Some(std.name)),
+            None => {
+                cx.problem(
+                    "area",
+                    format!("area = {} {} is not a standard strand area, so the diameter (needed for development length) is unknown", num(a), names.area),
+                    Some("give diameter as well".to_string()),
+                );
+                return None;
+            }
+        },
+        (None, None) => {
+            cx.problem(
+                "diameter",
+                "diameter is missing",
+                Some(format!("the strand's nominal diameter: {}", catalog::strand_names(grade, sys))),
+            );
+            return None;
+        }
+    };
+
+    let fpy = match &s.fpy {
+        Some(_) => cx.ranged("fpy", &s.fpy, Dim::Stress, 0.8 * fpu, 0.95 * fpu, false)?,
+        None => {
+            defaults.push(Default { key: "strands.fpy".into(), text: "fpy = 0.90 fpu (low-relaxation strand)".into() });
+            0.9 * fpu
+        }
+    };
+    let jack_limit = cx.basis.jacking_limit(fpu, fpy);
+    let how = exclusive(
+        cx,
+        &[("fse", s.fse.is_some()), ("losses", s.losses.is_some())],
+        "the effective prestress (fse, or losses with jacking)",
+    )?;
+    let (fse, fse_source) = if how == "fse" {
+        if s.jacking.is_some() {
+            cx.problem("jacking", "jacking is given with fse", Some("fse alone, or jacking with losses".to_string()));
+            return None;
+        }
+        let v = cx.quantity("fse", &s.fse, Dim::Stress)?;
+        if !(0.0..fpu).contains(&v) {
+            cx.problem(
+                "fse",
+                format!("fse = {} is out of range", cx.shown(Dim::Stress, v)),
+                Some(format!("0 <= fse < fpu = {}", cx.shown(Dim::Stress, fpu))),
+            );
+            return None;
+        }
+        if v > jack_limit {
+            cx.warn(
+                "fse",
+                format!(
+                    "fse = {} exceeds the jacking limit {} = {} of {}",
+                    cx.shown(Dim::Stress, v),
+                    cx.basis.jacking_limit_text(),
+                    cx.shown(Dim::Stress, jack_limit),
+                    cx.basis.cite(Clause::JackingLimit)
+                ),
+            );
+        }
+        (v, FseSource::Given)
+    } else {
+        let jacking = match s.jacking {
+            Some(j) => cx.ratio("jacking", Some(j), 0.5, 0.85)?,
+            None => {
+                defaults.push(Default { key: "strands.jacking".into(), text: "jacking stress fpj = 0.75 fpu".into() });
+                0.75
+            }
+        };
+        let fpj = jacking * fpu;
+        if fpj > jack_limit * (1.0 + 1e-12) {
+            cx.warn(
+                "jacking",
+                format!(
+                    "jacking = {} gives fpj = {}, above the limit {} = {} of {}",
+                    num(jacking),
+                    cx.shown(Dim::Stress, fpj),
+                    cx.basis.jacking_limit_text(),
+                    cx.shown(Dim::Stress, jack_limit),
+                    cx.basis.cite(Clause::JackingLimit)
+                ),
+            );
+        }
+        let losses = cx.quantity("losses", &s.losses, Dim::Stress)?;
+        if !(0.0..fpj).contains(&losses) {
+            cx.problem(
+                "losses",
+                format!("losses = {} is out of range", cx.shown(Dim::Stress, losses)),
+                Some(format!("0 <= losses < fpj = {}", cx.shown(Dim::Stress, fpj))),
+            );
+            return None;
+        }
+        (fpj - losses, FseSource::Losses { jacking, fpj, losses })
+    };
+    let debonded_length = match &s.debonded_length {
+        Some(_) => {
+            let limit = length.map_or(ranges(sys).length_max, |l| l / 2.0);
+            cx.ranged("debonded_length", &s.debonded_length, Dim::Length, 0.0, limit, false)?
+        }
+        None => 0.0,
+    };
+    // inside the concrete, at every level the layer takes
+    let levels: Vec<(f64, &'static str)> = match profile {
+        Profile::Straight { depth } => vec![(depth, if s.height.is_some() { "height" } else { "depth" })],
+        Profile::Harped { depth_end, depth_harp, .. } => {
+            let (a, b) =
+                if s.depth_end.is_some() { ("depth_end", "depth_harp") } else { ("height_end", "height_harp") };
+            vec![(depth_end, a), (depth_harp, b)]
+        }
+    };
+    for (d, key) in levels {
+        if !check_inside(cx, key, region, d, count, diameter) {
+            return None;
+        }
+    }
+    Some(StrandLayer { profile, count, diameter, area, size, fpu, fpy, grade, model, fse, fse_source, debonded_length })
+}
+
+pub(super) fn bar_layer(cx: &mut Ctx, b: &raw::Bars, region: &Region, defaults: &mut Vec<Default>) -> Option<BarLayer> {
+    let sys = cx.sys;
+    let r = ranges(sys);
+    let h = region.y_top() - region.y_bot();
+    let how = exclusive(
+        cx,
+        &[("depth", b.depth.is_some()), ("height", b.height.is_some())],
+        "the layer's level (depth from the top of the precast unit, or height from its bottom)",
+    )?;
+    let depth = if how == "depth" {
+        cx.ranged("depth", &b.depth, Dim::Length, 0.0, r.dim_max, true)?
+    } else {
+        h - cx.ranged("height", &b.height, Dim::Length, 0.0, r.dim_max, true)?
+    };
+    let count = cx.count("count", b.count, 1, limits::BARS_PER_LAYER);
+    let count = cx.required("count", count, "the number of bars in the layer")?;
+    let (size, diameter, area) = match (&b.size, &b.diameter) {
+        (Some(_), Some(_)) => {
+            cx.problem(
+                "diameter",
+                "size and diameter are both given",
+                Some("a bar size (\"#5\"), or diameter with area".to_string()),
+            );
+            return None;
+        }
+        (Some(name), None) => match catalog::bar(name, sys) {
+            Some(bs) => {
+                if b.area.is_some() {
+                    cx.problem(
+                        "area",
+                        "area is given with size; the size fixes the area",
+                        Some(format!("size alone ({} has {} {})", bs.name, num(bs.area), sys.names().area)),
+                    );
+                    return None;
+                }
+                (Some(bs.name), bs.diameter, bs.area)
+            }
+            None => {
+                let std = match sys {
+                    System::Us => "ASTM A615",
+                    System::Si => "ASTM A615M",
+                };
+                cx.problem("size", format!("size = {name:?} is not a {std} bar size"), Some(catalog::bar_names(sys)));
+                return None;
+            }
+        },
+        (None, Some(_)) => {
+            let d = cx.ranged("diameter", &b.diameter, Dim::Length, 0.0, r.dim_max / 10.0, true)?;
+            let a = cx.required("area", b.area.as_ref(), "the area of one bar (with diameter)").cloned();
+            let a = cx.ranged("area", &a, Dim::Area, 0.0, r.dim_max, true)?;
+            (None, d, a)
+        }
+        (None, None) if b.area.is_some() => {
+            // area alone: the drawing and the fit check use the round bar of that area
+            let a = cx.ranged("area", &b.area, Dim::Area, 0.0, r.dim_max, true)?;
+            let d = (4.0 * a / std::f64::consts::PI).sqrt();
+            defaults.push(Default {
+                key: "bars.diameter".into(),
+                text: format!(
+                    "a bar layer given by its area alone ({} {}) is drawn and placed as the round bar of that area, diameter √(4A/π) = {} {}",
+                    num(a),
+                    sys.names().area,
+                    crate::trace::show(d),
+                    sys.names().length
+                ),
+            });
+            (None, d, a)
+        }
+        (None, None) => {
+            cx.problem(
+                "size",
+                "size is missing",
+                Some(format!("a bar size: {}; diameter with area; or area alone", catalog::bar_names(sys))),
+            );
+            return None;
+        }
+    };
+    let fy = match &b.fy {
+        Some(_) => cx.ranged("fy", &b.fy, Dim::Stress, r.fy.0, r.fy.1, false)?,
+        None => {
+            let (v, g) = match sys {
+                System::Us => (60.0, "fy = 60 ksi (ASTM A615 Grade 60)"),
+                System::Si => (420.0, "fy = 420 MPa (ASTM A615M Grade 420)"),
+            };
+            defaults.push(Default { key: "bars.fy".into(), text: g.into() });
+            v
+        }
+    };
+    let es = match &b.es {
+        Some(_) => cx.ranged("es", &b.es, Dim::Stress, r.es.0, r.es.1, false)?,
+        None => {
+            let (v, t) = cx.basis.bar_modulus();
+            defaults.push(Default { key: "bars.es".into(), text: t });
+            v
+        }
+    };
+    if !check_inside(cx, how, region, depth, count, diameter) {
+        return None;
+    }
+    Some(BarLayer { depth, count, size, diameter, area, fy, es })
+}
