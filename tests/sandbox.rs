@@ -97,6 +97,17 @@ fn a_template_folder_needs_the_three_entries() {
 }
 
 #[test]
+fn a_template_folder_of_the_old_names_is_told_the_new_ones() {
+    let dir = template_dir("Hello\n");
+    std::fs::rename(dir.path().join("sheet-numbers.typ"), dir.path().join("stamps.typ")).unwrap();
+    let out = dir.path().join("out.pdf");
+    let (code, err) = report_with(dir.path(), &out);
+    assert_eq!(code, Some(2), "{err}");
+    assert!(err.contains("stamps.typ is now called sheet-numbers.typ"), "{err}");
+    assert!(!out.exists());
+}
+
+#[test]
 fn the_entries_must_keep_their_contract() {
     // no anchor where the back matter begins
     let dir = template_dir("Hello\n");

@@ -132,8 +132,15 @@ impl Templates {
         }
         let missing: Vec<&str> = ENTRIES.iter().filter(|e| !files.contains_key(**e)).map(|e| &e[1..]).collect();
         if !missing.is_empty() {
+            // a folder copied from an earlier version: say what its files are called now
+            let renamed = if files.contains_key("/stamps.typ") {
+                "; stamps.typ is now called sheet-numbers.typ (it reads data.sheet_numbers where it read \
+                 data.stamp), and seal.json is now content-hash.json"
+            } else {
+                ""
+            };
             return Err(Error::Usage(format!(
-                "{}: the template folder has no {} (it must hold package.typ, members.typ and sheet-numbers.typ)",
+                "{}: the template folder has no {} (it must hold package.typ, members.typ and sheet-numbers.typ){renamed}",
                 dir.display(),
                 missing.join(" and ")
             )));
