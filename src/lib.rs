@@ -5,37 +5,34 @@
 //!
 //! ```text
 //! input.toml --input::load--> Package --analysis::analyze--> Analysis (results + trace)
-//!   --report::payload--> canonical JSON --seal--> content hash
-//!   --report::render--> PDF bytes --output::write--> package.pdf + package.pdf.sha256
+//!   --report::payload::build--> Payload (canonical JSON) --integrity::content_hash--> content hash
+//!   --report::render--> PDF bytes --output::write_all--> package.pdf + package.pdf.sha256
+//! verify: package.pdf --integrity::verify--> attached input + payload --re-run--> same hash, same bytes
 //! ```
 
 pub mod analysis;
 pub mod basis;
-pub mod diff;
 pub mod error;
-pub mod files;
 pub mod fonts;
 pub mod input;
+pub mod integrity;
 pub mod material;
 pub mod output;
 pub mod present;
 pub mod report;
-pub mod seal;
 pub mod section;
-pub mod sign;
 pub mod starter;
 pub mod trace;
 pub mod units;
-pub mod verify;
 
 pub use analysis::conclusion::Status;
 pub use error::{Error, Result};
 
-/// `check --json` of a whole package, analysed: the members are analysed (without trace)
-/// and written in parallel chunks, each chunk's results dropped as soon as they are
-/// written, so a large package is quick and needs little memory. An analysis error is
-/// that of the first failing member in input order.
-pub fn check_json(pkg: &input::Package) -> Result<CheckJson> {
+/// `check --json` of a whole package: the members are analysed (without trace) and each
+/// written as its JSON, in parallel chunks, each chunk's results dropped as soon as they
+/// are written, so a large package is quick and needs little memory. An analysis error
+/// is that of the first failing member in input order.
+pub fn check_members(pkg: &input::Package) -> Result<CheckedMembers> {
     use rayon::prelude::*;
     const CHUNK: usize = 16;
     let pieces: Vec<Result<(Vec<u8>, Status)>> = pkg
@@ -55,7 +52,7 @@ pub fn check_json(pkg: &input::Package) -> Result<CheckJson> {
             Ok((buf, status))
         })
         .collect();
-    let mut out = CheckJson { pieces: Vec::with_capacity(pieces.len()), status: Status::Pass };
+    let mut out = CheckedMembers { pieces: Vec::with_capacity(pieces.len()), status: Status::Pass };
     for p in pieces {
         let (b, st) = p?;
         out.status = out.status.and(st);
@@ -65,14 +62,15 @@ pub fn check_json(pkg: &input::Package) -> Result<CheckJson> {
 }
 
 /// The members of `check --json`, written, and the package's result.
-pub struct CheckJson {
+pub struct CheckedMembers {
     pieces: Vec<Vec<u8>>,
     pub status: Status,
 }
 
-impl CheckJson {
-    /// Writes the whole JSON: the bytes of serialising [`present::check_json`].
-    pub fn write(&self, pkg: &input::Package, w: &mut dyn std::io::Write) -> std::io::Result<()> {
+impl CheckedMembers {
+    /// Writes the whole of `check --json`: the bytes of serialising
+    /// [`present::check_document`].
+    pub fn write_json(&self, pkg: &input::Package, w: &mut dyn std::io::Write) -> std::io::Result<()> {
         present::write_check_json(w, pkg, self.status, &self.pieces)
     }
 }

@@ -4,7 +4,8 @@
 use clap::{Parser, Subcommand, ValueEnum};
 use std::path::PathBuf;
 use std::process::ExitCode;
-use strainsheet::{Error, analysis, diff, input, output, present, report, seal, sign, starter, verify};
+use strainsheet::integrity::{diff, sidecar, sign, verify};
+use strainsheet::{Error, analysis, input, integrity, output, present, report, starter};
 
 /// mimalloc: the typesetter and the TOML reader make many small allocations; with it
 /// `check --json` on 3,000 members takes 0.028 s where the system allocator takes 0.040 s.
@@ -131,8 +132,8 @@ enum Cmd {
         #[arg(long)]
         overwrite: bool,
         /// Use the templates in this folder instead of the built-in ones (it must hold
-        /// package.typ, members.typ and stamps.typ; start from a copy of the built-in
-        /// templates/ folder).
+        /// package.typ, members.typ and sheet-numbers.typ; start from a copy of the
+        /// built-in templates/ folder).
         #[arg(long, value_name = "DIR")]
         templates: Option<PathBuf>,
         #[command(flatten)]
@@ -260,33 +261,11 @@ impl Drop for Progress {
     }
 }
 
-/// Writes to stdout through one buffer; a closed pipe is not an error. Rust's stdout is
-/// line-buffered: it looks for the last newline of every write and copies what follows
-/// it, which took a millisecond and a half of `check --json` on 3,000 members. So on
-/// Unix the buffer writes to a duplicate of the descriptor instead.
+/// Writes to stdout through one buffer; a closed pipe is not an error.
 fn write_stdout(f: impl FnOnce(&mut dyn std::io::Write) -> std::io::Result<()>) -> Result<(), Error> {
     use std::io::Write;
-    let stdout = std::io::stdout();
-    let mut lock = stdout.lock();
-    #[cfg(unix)]
-    let direct = {
-        use std::os::fd::AsFd;
-        // anything printed before goes out first
-        lock.flush().ok().and_then(|_| lock.as_fd().try_clone_to_owned().ok()).map(std::fs::File::from)
-    };
-    #[cfg(not(unix))]
-    let direct: Option<std::fs::File> = None;
-    let res = match direct {
-        Some(file) => {
-            let mut w = std::io::BufWriter::with_capacity(1 << 16, file);
-            f(&mut w).and_then(|_| w.flush())
-        }
-        None => {
-            let mut w = std::io::BufWriter::with_capacity(1 << 20, &mut lock);
-            f(&mut w).and_then(|_| w.flush())
-        }
-    };
-    match res {
+    let mut w = std::io::BufWriter::with_capacity(1 << 16, std::io::stdout().lock());
+    match f(&mut w).and_then(|_| w.flush()) {
         Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => Ok(()),
         Err(e) => Err(Error::Io { path: "stdout".into(), message: e.to_string() }),
         Ok(()) => Ok(()),
@@ -307,9 +286,9 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
         Cmd::Check { file, json } => {
             let (_, pkg) = input::load(&file)?;
             let status = if json {
-                let out = strainsheet::check_json(&pkg)?;
+                let out = strainsheet::check_members(&pkg)?;
                 write_stdout(|w| {
-                    out.write(&pkg, w)?;
+                    out.write_json(&pkg, w)?;
                     w.write_all(b"\n")
                 })?;
                 out.status
@@ -348,12 +327,16 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             progress.phase(format!("analysing {} members", pkg.members.len()));
             let a = analysis::analyze_full(&pkg)?;
             let status = a.status();
-            let r = report::render_reporting(&pkg, &src, a, &templates, &|m| progress.phase(m))?;
+            let prepared = report::prepare(&pkg, &src, &a, &templates)?;
+            // the payload holds all of it now; the sheets are typeset from the views
+            drop(a);
+            let hooks = report::Hooks { progress: &|m| progress.phase(m), pause: &between_runs };
+            let r = report::typeset(&pkg, &src, prepared, &templates, &hooks)?;
             progress.phase("writing");
             let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
-            let sidecar = seal::sidecar(&r.pdf, &name);
-            let file_hash = seal::sha256_hex(&r.pdf);
-            output::write_all(&[(out.clone(), r.pdf), (side_path.clone(), sidecar.into_bytes())], overwrite)?;
+            let side = sidecar::line(&r.pdf, &name);
+            let file_hash = integrity::sha256_hex(&r.pdf);
+            output::write_all(&[(out.clone(), r.pdf), (side_path.clone(), side.into_bytes())], overwrite)?;
             progress.done();
             print_warnings(&pkg);
             eprintln!(
@@ -375,6 +358,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                     templates: templates.as_deref(),
                     pubkey: pubkey.as_deref(),
                     expect: expect.as_deref(),
+                    hooks: report::Hooks { pause: &between_runs, ..report::Hooks::default() },
                 },
             )?;
             println!("verify {}", file.display());
@@ -511,6 +495,23 @@ fn result_code(status: strainsheet::Status) -> ExitCode {
 fn print_warnings(pkg: &input::Package) {
     for w in &pkg.warnings {
         eprintln!("warning: {}: {}: {}", w.at, w.key, w.message);
+    }
+}
+
+/// What the program does at each pause of the typesetting, when no Typst run is going
+/// on. Typst keeps every layout of every run in its caches (comemo's statics) for the
+/// life of the process, and the next runs need none of them: they are emptied. At the
+/// end of a phase mimalloc also hands the memory freed back to the system, on every
+/// thread, rather than when it next gets round to it; between batches of member runs
+/// the next batch would only fault the same memory in again.
+fn between_runs(pause: report::Pause) {
+    typst::comemo::evict(0);
+    if pause == report::Pause::Phase {
+        // SAFETY: mi_collect takes a flag, touches only the allocator's own free lists
+        // and is safe to call on any thread at any time.
+        rayon::broadcast(|_| unsafe { libmimalloc_sys::mi_collect(true) });
+        // SAFETY: as above, for the calling thread.
+        unsafe { libmimalloc_sys::mi_collect(true) };
     }
 }
 

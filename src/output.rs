@@ -200,7 +200,7 @@ fn check_targets(files: &[&Path]) -> Result<()> {
                 p,
                 format!(
                     "this is {}, not a regular file: it is left as it is (only regular files are replaced); write elsewhere",
-                    crate::files::kind_of(&meta.file_type())
+                    crate::integrity::files::kind_of(&meta.file_type())
                 ),
             ));
         }

@@ -159,9 +159,9 @@ fn station_json<'a>(m: &'a MemberResult, s: &'a crate::analysis::StationRow) -> 
     }
 }
 
-/// `check --json`: the contract of the design document.
+/// `check --json`, the whole document: the contract of the design document.
 #[derive(Serialize)]
-pub struct CheckJson<'a> {
+pub struct CheckDocument<'a> {
     format: u32,
     units: crate::units::UnitNames,
     pass: bool,
@@ -170,8 +170,8 @@ pub struct CheckJson<'a> {
     warnings: &'a [crate::input::model::Warning],
 }
 
-pub fn check_json<'a>(pkg: &'a Package, a: &'a Analysis) -> CheckJson<'a> {
-    CheckJson {
+pub fn check_document<'a>(pkg: &'a Package, a: &'a Analysis) -> CheckDocument<'a> {
+    CheckDocument {
         format: 1,
         units: pkg.units.names(),
         pass: a.pass(),
@@ -213,7 +213,7 @@ pub fn write_member_json(out: &mut Vec<u8>, m: &MemberResult) {
 
 /// Writes `check --json` from members already written (by [`write_member_json`],
 /// comma-separated, in pieces in input order): the same bytes as serialising
-/// [`check_json`].
+/// [`check_document`].
 pub fn write_check_json(
     w: &mut dyn std::io::Write,
     pkg: &Package,

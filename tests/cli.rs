@@ -145,10 +145,10 @@ fn check_json_pieces_equal_the_whole() {
     for (name, text) in texts {
         let pkg = common::parse(&text);
         let a = strainsheet::analysis::analyze(&pkg, false).unwrap();
-        let whole = serde_json::to_vec(&strainsheet::present::check_json(&pkg, &a)).unwrap();
-        let out = strainsheet::check_json(&pkg).unwrap();
+        let whole = serde_json::to_vec(&strainsheet::present::check_document(&pkg, &a)).unwrap();
+        let out = strainsheet::check_members(&pkg).unwrap();
         let mut pieces = Vec::new();
-        out.write(&pkg, &mut pieces).unwrap();
+        out.write_json(&pkg, &mut pieces).unwrap();
         assert_eq!(out.status, a.status(), "{name}");
         assert!(whole == pieces, "{name}: the assembled JSON differs from the whole");
     }

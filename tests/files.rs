@@ -152,7 +152,7 @@ fn a_template_swapped_for_a_link_is_never_followed() {
     let stage = root.path().join("stage");
     std::fs::create_dir(&tdir).unwrap();
     std::fs::create_dir(&stage).unwrap();
-    for (n, text) in [("package.typ", "p"), ("members.typ", "m"), ("stamps.typ", "s")] {
+    for (n, text) in [("package.typ", "p"), ("members.typ", "m"), ("sheet-numbers.typ", "s")] {
         std::fs::write(tdir.join(n), text).unwrap();
     }
     let secret = root.path().join("secret.txt");
@@ -175,7 +175,7 @@ fn a_template_swapped_for_a_link_is_never_followed() {
     // what the folder reads as with x.typ the regular file
     let reference = root.path().join("reference");
     std::fs::create_dir(&reference).unwrap();
-    for n in ["package.typ", "members.typ", "stamps.typ"] {
+    for n in ["package.typ", "members.typ", "sheet-numbers.typ"] {
         std::fs::copy(tdir.join(n), reference.join(n)).unwrap();
     }
     std::fs::write(reference.join("x.typ"), "regular").unwrap();

@@ -552,8 +552,8 @@ fn the_reader_refuses_a_pipe_without_waiting() {
     let (tx, rx) = std::sync::mpsc::channel();
     let f = fifo.clone();
     std::thread::spawn(move || {
-        let a = strainsheet::files::read_regular(&f, 1024, "the file").map(|b| b.len());
-        let b = strainsheet::files::read_regular(Path::new("/dev/zero"), 1024, "the file").map(|b| b.len());
+        let a = strainsheet::integrity::files::read_regular(&f, 1024, "the file").map(|b| b.len());
+        let b = strainsheet::integrity::files::read_regular(Path::new("/dev/zero"), 1024, "the file").map(|b| b.len());
         let _ = tx.send((a.map_err(|e| e.to_string()), b.map_err(|e| e.to_string())));
     });
     let (a, b) = rx.recv_timeout(std::time::Duration::from_secs(20)).expect("the reader blocked on a pipe or a device");

@@ -241,7 +241,10 @@ fn an_interrupted_overwrite_never_pairs_a_file_with_another_sidecar() {
     let (_, old) = render_example("hollow-core-plank.toml");
     let (_, new) = render_example("inverted-tee-girder.toml");
     let pair = |r: &strainsheet::report::Rendered| {
-        vec![(pdf.clone(), r.pdf.clone()), (side.clone(), strainsheet::seal::sidecar(&r.pdf, "pkg.pdf").into_bytes())]
+        vec![
+            (pdf.clone(), r.pdf.clone()),
+            (side.clone(), strainsheet::integrity::sidecar::line(&r.pdf, "pkg.pdf").into_bytes()),
+        ]
     };
     output::write_all(&pair(&old), false).unwrap();
     let mut seen: Vec<(PathBuf, Option<Vec<u8>>, bool, String)> = Vec::new();
@@ -263,7 +266,7 @@ fn an_interrupted_overwrite_never_pairs_a_file_with_another_sidecar() {
     // 3. its sidecar
     assert_eq!(seen[2].0, side);
     assert!(seen[2].2 && seen[2].3.ends_with("written"), "{}", seen[2].3);
-    assert_eq!(std::fs::read_to_string(&side).unwrap(), strainsheet::seal::sidecar(&new.pdf, "pkg.pdf"));
+    assert_eq!(std::fs::read_to_string(&side).unwrap(), strainsheet::integrity::sidecar::line(&new.pdf, "pkg.pdf"));
     let left: Vec<String> =
         std::fs::read_dir(dir.path()).unwrap().map(|e| e.unwrap().file_name().to_string_lossy().into_owned()).collect();
     assert_eq!(left.len(), 2, "{left:?}");
@@ -273,7 +276,7 @@ fn an_interrupted_overwrite_never_pairs_a_file_with_another_sidecar() {
     output::write_all_observed(&[(other.clone(), b"x".to_vec())], false, &mut |_, s| said.push(s.to_string())).unwrap();
     assert_eq!(said, ["nothing was written"]);
     // the state an earlier version could leave: the new PDF beside the old sidecar
-    std::fs::write(&side, strainsheet::seal::sidecar(&old.pdf, "pkg.pdf")).unwrap();
+    std::fs::write(&side, strainsheet::integrity::sidecar::line(&old.pdf, "pkg.pdf")).unwrap();
     let (code, out) = verify(&pdf, &[]);
     assert_eq!(code, 0, "{out}");
     assert!(out.contains("belongs to another PDF of this name") && !out.contains("CHANGED"), "{out}");
@@ -293,7 +296,7 @@ fn other_version_copy(good: &[u8], version: &str, edit: impl FnOnce(&mut Documen
         1,
     );
     assert_ne!(edited, text);
-    let new_hash = strainsheet::seal::sha256_hex(edited.as_bytes());
+    let new_hash = strainsheet::integrity::sha256_hex(edited.as_bytes());
     stream.set_plain_content(edited.into_bytes());
     let info_id = doc.trailer.get(b"Info").unwrap().as_reference().unwrap();
     doc.get_dictionary_mut(info_id)
@@ -321,7 +324,7 @@ fn other_version_is_exit_3_not_verified() {
     assert!(out.contains("NOT VERIFIED") && out.contains("not compared") && !out.contains("intact"), "{out}");
     assert!(out.contains("--expect"), "{out}");
     // its own file hash, recorded at issue, proves it whatever the version
-    let own = strainsheet::seal::sha256_hex(&b);
+    let own = strainsheet::integrity::sha256_hex(&b);
     let (code, out) = verify(&p, &["--expect", &own]);
     assert_eq!(code, 0, "{out}");
     assert!(
@@ -337,7 +340,7 @@ fn other_version_is_exit_3_not_verified() {
 fn a_forged_older_version_stamp_is_not_verified() {
     let i = issue("hollow-core-plank.toml");
     let good = std::fs::read(&i.pdf).unwrap();
-    let issued_hash = strainsheet::seal::sha256_hex(&good);
+    let issued_hash = strainsheet::integrity::sha256_hex(&good);
     let forged = other_version_copy(&good, "0.4.0", |doc| {
         // the first sheet's drawing replaced: the pages no longer show the payload
         let page = *doc.get_pages().get(&1).unwrap();
@@ -346,7 +349,8 @@ fn a_forged_older_version_stamp_is_not_verified() {
         doc.get_dictionary_mut(page).unwrap().set("Contents", content);
     });
     let (_d, p) = tampered(&forged);
-    std::fs::write(format!("{}.sha256", p.display()), strainsheet::seal::sidecar(&forged, "copy.pdf")).unwrap();
+    std::fs::write(format!("{}.sha256", p.display()), strainsheet::integrity::sidecar::line(&forged, "copy.pdf"))
+        .unwrap();
     let (code, out) = verify(&p, &[]);
     assert_eq!(code, 3, "{out}");
     assert!(out.contains("NOT VERIFIED") && !out.contains("intact"), "{out}");
@@ -356,8 +360,8 @@ fn a_forged_older_version_stamp_is_not_verified() {
     assert_eq!(code, 1, "{out}");
     assert!(out.contains("[FAIL] expected hash") && out.contains("not the file recorded"), "{out}");
     // so does the content hash recorded at issue (the payload was changed)
-    let content = strainsheet::verify::open(&i.pdf).unwrap();
-    let (code, out) = verify(&p, &["--expect", &strainsheet::seal::sha256_hex(&content.payload)]);
+    let content = strainsheet::integrity::attached::open(&i.pdf).unwrap();
+    let (code, out) = verify(&p, &["--expect", &strainsheet::integrity::sha256_hex(&content.payload)]);
     assert_eq!(code, 1, "{out}");
 }
 
@@ -366,8 +370,9 @@ fn a_forged_older_version_stamp_is_not_verified() {
 fn expect_names_the_hash_it_matched() {
     let i = issue("inverted-tee-girder.toml");
     let bytes = std::fs::read(&i.pdf).unwrap();
-    let file_hash = strainsheet::seal::sha256_hex(&bytes);
-    let content_hash = strainsheet::seal::sha256_hex(&strainsheet::verify::open(&i.pdf).unwrap().payload);
+    let file_hash = strainsheet::integrity::sha256_hex(&bytes);
+    let content_hash =
+        strainsheet::integrity::sha256_hex(&strainsheet::integrity::attached::open(&i.pdf).unwrap().payload);
     let (code, out) = verify(&i.pdf, &["--expect", &file_hash.to_uppercase()]);
     assert_eq!(code, 0, "{out}");
     assert!(out.contains("is the file hash (PDF) of this file"), "{out}");
@@ -398,8 +403,9 @@ fn the_two_hashes_are_labelled() {
         .unwrap();
     let said = String::from_utf8_lossy(&out.stderr);
     let bytes = std::fs::read(&pdf).unwrap();
-    let file_hash = strainsheet::seal::sha256_hex(&bytes);
-    let content_hash = strainsheet::seal::sha256_hex(&strainsheet::verify::open(&pdf).unwrap().payload);
+    let file_hash = strainsheet::integrity::sha256_hex(&bytes);
+    let content_hash =
+        strainsheet::integrity::sha256_hex(&strainsheet::integrity::attached::open(&pdf).unwrap().payload);
     assert!(said.contains(&format!("content hash (payload, on the cover): {content_hash}")), "{said}");
     assert!(said.contains(&format!("file hash (PDF, in {}.sha256): {file_hash}", pdf.display())), "{said}");
     // the sidecar stays one line sha256sum -c reads
@@ -471,7 +477,7 @@ fn custom_templates_must_be_given_to_verify() {
     assert_eq!(code, 3, "{text}");
     assert!(text.contains("differ") && text.contains("NOT VERIFIED"), "{text}");
     // the file hash recorded at issue proves it without them
-    let file_hash = strainsheet::seal::sha256_hex(&std::fs::read(&pdf).unwrap());
+    let file_hash = strainsheet::integrity::sha256_hex(&std::fs::read(&pdf).unwrap());
     let (code, text) = verify(&pdf, &["--expect", &file_hash]);
     assert_eq!(code, 0, "{text}");
     assert!(text.contains("byte for byte"), "{text}");
@@ -528,13 +534,13 @@ fn signatures_prove_the_signer_and_the_file() {
     let mut bad = good.clone();
     bad.extend_from_slice(b"\n");
     std::fs::write(&i.pdf, &bad).unwrap();
-    let msg = strainsheet::sign::check(&sig, &pubkey, &bad).unwrap_err();
+    let msg = strainsheet::integrity::sign::check(&sig, &pubkey, &bad).unwrap_err();
     assert!(msg.contains("changed after it was signed"), "{msg}");
     std::fs::write(&i.pdf, &good).unwrap();
     // an altered signature file fails
     let s = std::fs::read_to_string(&sig).unwrap();
     std::fs::write(&sig, s.replace("signer: Katriina Holmbeck", "signer: Someone Else")).unwrap();
-    let msg = strainsheet::sign::check(&sig, &pubkey, &good).unwrap_err();
+    let msg = strainsheet::integrity::sign::check(&sig, &pubkey, &good).unwrap_err();
     assert!(msg.contains("altered"), "{msg}");
     // another key's public half does not verify it
     std::fs::write(&sig, &s).unwrap();
@@ -547,7 +553,7 @@ fn signatures_prove_the_signer_and_the_file() {
             .status
             .success()
     );
-    let msg = strainsheet::sign::check(&sig, &dir.join("other.key.pub"), &good).unwrap_err();
+    let msg = strainsheet::integrity::sign::check(&sig, &dir.join("other.key.pub"), &good).unwrap_err();
     assert!(msg.contains("another key"), "{msg}");
 }
 

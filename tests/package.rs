@@ -205,14 +205,14 @@ fn pdf_structure_reads_back() {
         let (pkg, r) = render_example(ex);
         let doc = lopdf::Document::load_mem(&r.pdf).expect("lopdf reads the package");
         assert_eq!(doc.get_pages().len(), r.pages);
-        let files = strainsheet::verify::attachments(&doc).unwrap();
+        let files = strainsheet::integrity::attached::attachments(&doc).unwrap();
         assert_eq!(
             files.keys().cloned().collect::<Vec<_>>(),
             vec!["input.toml".to_string(), "payload.json".to_string()]
         );
         assert_eq!(files["payload.json"], r.payload);
-        assert_eq!(strainsheet::seal::sha256_hex(&files["payload.json"]), r.hash);
-        assert_eq!(strainsheet::verify::recorded_hash(&doc).as_deref(), Some(r.hash.as_str()));
+        assert_eq!(strainsheet::integrity::sha256_hex(&files["payload.json"]), r.hash);
+        assert_eq!(strainsheet::integrity::attached::recorded_hash(&doc).as_deref(), Some(r.hash.as_str()));
         // PDF/A-3b identification in the XMP metadata
         let s = String::from_utf8_lossy(&r.pdf);
         assert!(s.contains("pdfaid:part>3<") || s.contains("pdfaid:part=\"3\""), "{ex}: no PDF/A-3 identification");
@@ -282,7 +282,7 @@ fn report_refuses_to_overwrite_and_leaves_the_old_file() {
     assert!(matches!(st.status.code(), Some(0 | 3)), "{}", String::from_utf8_lossy(&st.stderr));
     assert!(std::fs::read(&out).unwrap().starts_with(b"%PDF-"));
     let side = std::fs::read_to_string(dir.path().join("pkg.pdf.sha256")).unwrap();
-    assert_eq!(side, strainsheet::seal::sidecar(&std::fs::read(&out).unwrap(), "pkg.pdf"));
+    assert_eq!(side, strainsheet::integrity::sidecar::line(&std::fs::read(&out).unwrap(), "pkg.pdf"));
 }
 
 #[test]

@@ -1,6 +1,7 @@
 //! Property tests: random valid members never panic, close equilibrium, give results
 //! that do not depend on the order of layers or members, and behave as flexure should
-//! when steel is added; random text never makes the loader panic.
+//! when steel is added; random text and random bytes never make the loader or the
+//! analysis panic (these stand in for a fuzzer, and run with every `cargo test`).
 
 mod common;
 use common::*;
@@ -151,6 +152,15 @@ proptest! {
     #[test]
     fn random_text_never_panics(text in "\\PC{0,400}") {
         let _ = input::parse(&Source { name: "r.toml".into(), text });
+    }
+
+    #[test]
+    fn random_bytes_never_panic(bytes in proptest::collection::vec(any::<u8>(), 0..600)) {
+        if let Ok(src) = input::from_bytes("b.toml".into(), bytes)
+            && let Ok(pkg) = input::parse(&src)
+        {
+            let _ = analysis::analyze(&pkg, true);
+        }
     }
 
     #[test]

@@ -12,7 +12,7 @@ use std::path::Path;
 const MINIMAL: [(&str, &str); 3] = [
     ("package.typ", "Front\n#pagebreak()\n#metadata(\"toc:summary\") <toc:summary>\nBack\n"),
     ("members.typ", "#for m in json(\"view.json\").members [#m.id #pagebreak(weak: true)]\n"),
-    ("stamps.typ", "#for _ in range(json(\"view.json\").stamp.total - 1) { pagebreak() }\n"),
+    ("sheet-numbers.typ", "#for _ in range(json(\"view.json\").sheet_numbers.total - 1) { pagebreak() }\n"),
 ];
 
 /// A template folder of the minimal templates with `entry` holding `text` instead.
@@ -88,11 +88,22 @@ fn a_template_cannot_read_outside_its_folder() {
 #[test]
 fn a_template_folder_needs_the_three_entries() {
     let dir = template_dir("Hello\n");
-    std::fs::remove_file(dir.path().join("stamps.typ")).unwrap();
+    std::fs::remove_file(dir.path().join("sheet-numbers.typ")).unwrap();
     let out = dir.path().join("out.pdf");
     let (code, err) = report_with(dir.path(), &out);
     assert_eq!(code, Some(2), "{err}");
-    assert!(err.contains("no stamps.typ") && err.contains("members.typ"), "{err}");
+    assert!(err.contains("no sheet-numbers.typ") && err.contains("members.typ"), "{err}");
+    assert!(!out.exists());
+}
+
+#[test]
+fn a_template_folder_of_the_old_names_is_told_the_new_ones() {
+    let dir = template_dir("Hello\n");
+    std::fs::rename(dir.path().join("sheet-numbers.typ"), dir.path().join("stamps.typ")).unwrap();
+    let out = dir.path().join("out.pdf");
+    let (code, err) = report_with(dir.path(), &out);
+    assert_eq!(code, Some(2), "{err}");
+    assert!(err.contains("stamps.typ is now called sheet-numbers.typ"), "{err}");
     assert!(!out.exists());
 }
 
@@ -104,10 +115,13 @@ fn the_entries_must_keep_their_contract() {
     assert_eq!(code, Some(2), "{err}");
     assert!(err.contains("toc:summary"), "{err}");
     // one page of numbers too few
-    let dir = template_dir_with("stamps.typ", "#for _ in range(json(\"view.json\").stamp.total - 2) { pagebreak() }\n");
+    let dir = template_dir_with(
+        "sheet-numbers.typ",
+        "#for _ in range(json(\"view.json\").sheet_numbers.total - 2) { pagebreak() }\n",
+    );
     let (code, err) = report_with(dir.path(), &dir.path().join("b.pdf"));
     assert_eq!(code, Some(2), "{err}");
-    assert!(err.contains("stamps.typ made") && err.contains("one per sheet"), "{err}");
+    assert!(err.contains("sheet-numbers.typ made") && err.contains("one per sheet"), "{err}");
 }
 
 #[cfg(unix)]

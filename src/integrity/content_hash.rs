@@ -1,4 +1,4 @@
-//! Canonical payload bytes and the content hash.
+//! The content hash: the SHA-256 of the payload's canonical bytes.
 //!
 //! The payload is JSON written canonically: objects with their keys in byte order of
 //! their UTF-8 text, no insignificant whitespace, strings as serde_json writes them
@@ -7,7 +7,6 @@
 //! null). The content hash is the SHA-256 of exactly those bytes, in lowercase hex.
 
 use serde_json::Value;
-use sha2::{Digest, Sha256};
 
 /// Writes a JSON value canonically.
 pub fn canonical(v: &Value) -> Vec<u8> {
@@ -74,16 +73,6 @@ fn scalar(v: &Value, out: &mut Vec<u8>) {
     let _ = serde_json::to_writer(&mut *out, v);
 }
 
-/// SHA-256 of bytes, lowercase hex.
-pub fn sha256_hex(bytes: &[u8]) -> String {
-    hex::encode(Sha256::digest(bytes))
-}
-
-/// The sidecar line `sha256sum -c` reads: `<hex>  <file name>\n`.
-pub fn sidecar(pdf: &[u8], file_name: &str) -> String {
-    format!("{}  {}\n", sha256_hex(pdf), file_name)
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -93,11 +82,5 @@ mod tests {
     fn canonical_sorts_keys_and_drops_space() {
         let v = json!({"b": 1, "a": [1.5, "x", null], "c": {"z": true, "y": 0.1}});
         assert_eq!(String::from_utf8(canonical(&v)).unwrap(), r#"{"a":[1.5,"x",null],"b":1,"c":{"y":0.1,"z":true}}"#);
-    }
-
-    // FIPS 180-2 test vector: SHA-256("abc")
-    #[test]
-    fn sha256_of_abc() {
-        assert_eq!(sha256_hex(b"abc"), "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
     }
 }

@@ -21,7 +21,7 @@
 //! complements, never replaces, the sign-off block inside the package.
 
 use crate::error::{Error, Result};
-use crate::seal::sha256_hex;
+use crate::integrity::sha256_hex;
 use ed25519_dalek::{Signature, Signer, SigningKey, Verifier, VerifyingKey};
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -116,7 +116,7 @@ struct Key {
 }
 
 fn read_key(path: &Path) -> Result<Key> {
-    let text = crate::files::read_text(path, MAX_KEY_BYTES, "the signing key")?;
+    let text = crate::integrity::files::read_text(path, MAX_KEY_BYTES, "the signing key")?;
     let bad = |why: String| Error::Usage(format!("{}: not a strainsheet signing key: {why}", path.display()));
     let fs = fields(&text, KEY_HEAD).map_err(bad)?;
     let hexs = field(&fs, "secret").map_err(bad)?;
@@ -276,21 +276,17 @@ pub struct Signed {
 /// signature then records `status: draft`).
 pub fn sign(file: &Path, key: &Path, date: Option<&str>, overwrite: bool, draft_ok: bool) -> Result<Signed> {
     let k = read_key(key)?;
-    let opened = crate::verify::open(file).map_err(|e| match e {
+    let opened = crate::integrity::attached::open(file).map_err(|e| match e {
         Error::Usage(m) => Error::Usage(format!("{m}; sign signs strainsheet packages only")),
         other => other,
     })?;
-    let draft = opened.payload_json.pointer("/package/draft").and_then(|v| v.as_bool()).unwrap_or(true);
+    // a payload this version cannot read is taken as a draft's
+    let package = opened.stored.as_ref().ok().map(|s| &s.head.package);
+    let draft = package.is_none_or(|p| p.draft);
     if draft && !draft_ok {
-        let undated: Vec<String> = opened
-            .payload_json
-            .pointer("/package/signoffs")
-            .and_then(|v| v.as_array())
-            .map(|ss| {
-                ss.iter()
-                    .filter(|s| s["date"].is_null())
-                    .map(|s| format!("{} ({})", s["role"].as_str().unwrap_or("?"), s["name"].as_str().unwrap_or("?")))
-                    .collect()
+        let undated: Vec<String> = package
+            .map(|p| {
+                p.signoffs.iter().filter(|s| s.date.is_none()).map(|s| format!("{} ({})", s.role, s.name)).collect()
             })
             .unwrap_or_default();
         return Err(Error::Usage(format!(
@@ -331,10 +327,10 @@ pub fn sign(file: &Path, key: &Path, date: Option<&str>, overwrite: bool, draft_
 /// Checks a signature file against a public key file and the file's bytes. Returns
 /// "name (license), date" of the signer, and ", of a DRAFT" for a draft's signature.
 pub fn check(sig_path: &Path, pubkey: &Path, file: &[u8]) -> std::result::Result<String, String> {
-    let sig_text =
-        crate::files::read_text(sig_path, MAX_KEY_BYTES, "the signature file").map_err(|e| plain(&e.to_string()))?;
-    let pub_text =
-        crate::files::read_text(pubkey, MAX_KEY_BYTES, "the public key file").map_err(|e| plain(&e.to_string()))?;
+    let sig_text = crate::integrity::files::read_text(sig_path, MAX_KEY_BYTES, "the signature file")
+        .map_err(|e| plain(&e.to_string()))?;
+    let pub_text = crate::integrity::files::read_text(pubkey, MAX_KEY_BYTES, "the public key file")
+        .map_err(|e| plain(&e.to_string()))?;
     let sf =
         parse_signature(&sig_text).map_err(|e| format!("{}: not a valid signature file: {e}", sig_path.display()))?;
     let pf = fields(&pub_text, PUB_HEAD).map_err(|e| format!("{}: not a public key file: {e}", pubkey.display()))?;
