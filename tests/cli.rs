@@ -172,3 +172,40 @@ fn report_refuses_a_package_too_large_to_typeset() {
     let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
     assert!(v["steps"].as_array().unwrap().len() > 500 * 100);
 }
+
+/// Every shipped demo (its demand derived from loads, but for one member given by hand)
+/// checks with the status its JSON states, each loaded member lists its stations in
+/// order of x with the governing one's values on top, and the package renders.
+#[test]
+fn every_demo_checks_and_renders() {
+    for ex in ["parking-double-tee.toml", "inverted-tee-girder.toml", "hollow-core-plank.toml"] {
+        let o = bin().args(["check", "--json", demo(ex).to_str().unwrap()]).output().unwrap();
+        let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+        let expected = match v["status"].as_str().unwrap() {
+            "pass" => 0,
+            "conditional" => 3,
+            other => panic!("{ex}: status {other}"),
+        };
+        assert_eq!(o.status.code(), Some(expected), "{ex}");
+        let mut loaded = 0;
+        for m in v["members"].as_array().unwrap() {
+            let Some(st) = m["stations"].as_array() else { continue };
+            loaded += 1;
+            let xs: Vec<f64> = st.iter().map(|s| s["x"].as_f64().unwrap()).collect();
+            assert!(xs.windows(2).all(|w| w[0] < w[1]), "{ex}: stations ordered by x");
+            for s in st {
+                for key in ["x", "mu", "mnc", "phi_mn", "ratio"] {
+                    assert!(s[key].is_number(), "{ex}: station without {key}");
+                }
+            }
+            let worst = st.iter().map(|s| s["ratio"].as_f64().unwrap()).fold(0.0, f64::max);
+            assert!(m["ratio"].as_f64().unwrap() >= worst, "{ex}: the top-level values are the governing section's");
+        }
+        assert!(loaded > 0, "{ex}: a demo with loads");
+        let dir = tempfile::tempdir().unwrap();
+        let pdf = dir.path().join("p.pdf");
+        let o = bin().args(["report", demo(ex).to_str().unwrap(), "-o", pdf.to_str().unwrap()]).output().unwrap();
+        assert!(matches!(o.status.code(), Some(0 | 3)), "{ex}: {}", String::from_utf8_lossy(&o.stderr));
+        assert!(std::fs::metadata(&pdf).unwrap().len() > 10_000);
+    }
+}

@@ -690,7 +690,7 @@ mod tests {
 
     #[test]
     fn input_moments_are_shown_in_their_unit() {
-        let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/inverted-tee-girder.toml");
+        let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures/inverted-tee-girder.toml");
         let text = std::fs::read_to_string(path).unwrap();
         let mu = text.lines().find(|l| l.starts_with("mu = ")).unwrap();
         let old = side(&text);

@@ -54,7 +54,16 @@ pub fn parse_err(text: &str) -> String {
     }
 }
 
+/// A test fixture: the scenario packages with their moments given by hand (as the
+/// examples were before their demand was derived from loads), whose values the tests
+/// pin after recomputing them by hand. The shipped demos in examples/ are checked by
+/// `demo` users (trace replay, hostile inputs, `cli::every_demo_checks_and_renders`).
 pub fn example(name: &str) -> std::path::PathBuf {
+    std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/fixtures").join(name)
+}
+
+/// A shipped demo package in examples/.
+pub fn demo(name: &str) -> std::path::PathBuf {
     std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples").join(name)
 }
 
