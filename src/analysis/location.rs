@@ -189,6 +189,7 @@ pub(super) fn location(p: &Prepared, li: usize, loc: &Station, trace: bool) -> R
         notes,
         block_rings,
         solved: true,
+        demand_from_loads: None,
         trace: steps,
     })
 }
@@ -323,6 +324,7 @@ fn no_tension_steel(
         notes,
         block_rings: Vec::new(),
         solved: false,
+        demand_from_loads: None,
         trace: steps,
     }
 }

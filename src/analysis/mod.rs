@@ -163,6 +163,7 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
             name_conversions(sys, &mut steps);
             steps.append(&mut r.trace);
             r.trace = steps;
+            r.demand_from_loads = d.combinations.get(at.combination).map(|c| c.name.clone());
         }
         settle_with_curve(m, basis, site, li, &mut r);
         locations.push(r);

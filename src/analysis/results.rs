@@ -216,6 +216,9 @@ pub struct LocationResult {
     pub block_rings: Vec<Vec<P>>,
     /// Whether strain compatibility was solved (false where there is no tension steel).
     pub solved: bool,
+    /// Where Mu comes from: `None` given in the input; else derived from the member's
+    /// loads, by the governing load combination named.
+    pub demand_from_loads: Option<String>,
     pub trace: Vec<Step>,
 }
 
