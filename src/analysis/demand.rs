@@ -11,7 +11,7 @@ use super::prepare::Prepared;
 use super::{sy, sym_k};
 use crate::basis::{Clause, Combination};
 use crate::input::model::{LineLoad, LoadKind, Loads, Member, PointLoad};
-use crate::trace::{Step, Trace, Unit, f::*};
+use crate::trace::{Expr, Step, Trace, Unit, f::*};
 use crate::units::System;
 use serde::Serialize;
 
@@ -186,6 +186,15 @@ impl Demand {
     }
 }
 
+/// A symbol subscripted with a load kind, as Typst math: "M_D", or "M_(L_r)" for roof
+/// live load (a bare "Lr" would be read as a variable).
+fn sub_math(base: &str, kind: LoadKind) -> String {
+    match kind {
+        LoadKind::RoofLive => format!("{base}_(L_r)"),
+        k => format!("{base}_{}", k.symbol()),
+    }
+}
+
 fn kind_index(k: LoadKind) -> usize {
     LoadKind::ALL.iter().position(|x| *x == k).unwrap_or(0)
 }
@@ -281,26 +290,17 @@ pub(super) fn record_at(d: &Demand, p: &Prepared, tag: &str, at: &MomentsAt, tr:
         }
         tr.rec(|| {
             let sym = crate::trace::Symbol {
-                math: format!("M_{}", kind.symbol()),
+                math: sub_math("M", *kind),
                 plain: format!("M{}", kind.symbol()),
             };
             let mut st = Step::new("demand", format!("{tag}.demand.M{}", kind.symbol()), format!("Unfactored {} load moment at x", kind.word()), sym);
             let mut terms = Vec::new();
             if ws > 0.0 {
-                let w_sym = crate::trace::Symbol { math: format!("w_{}", kind.symbol()), plain: format!("w{}", kind.symbol()) };
+                let w_sym = crate::trace::Symbol { math: sub_math("w", *kind), plain: format!("w{}", kind.symbol()) };
                 st = st.input(w_sym, line_shown(sys, ws), Unit::LineLoad);
-                if between {
-                    // w/2 (x'(S - x') - a²), x' = x - a
-                    st = st.input(sy("x", "x"), x, Unit::Length).input(sy("a", "a"), a, Unit::Length).input(sy("S", "S"), d.span, Unit::Length);
-                    let xp = sub(v(1), v(2));
-                    let core = mul(vec![div(v(0), n(2.0)), sub(mul(vec![xp.clone(), sub(v(3), xp)]), pow(v(2), n(2.0)))]);
-                    terms.push(per(core, conv_uniform(sys)));
-                } else {
-                    // over an overhang: -w x_o² / 2, x_o from the nearer end
-                    let xo = x.min(d.length - x);
-                    st = st.input(sy("x_o", "xo"), xo, Unit::Length);
-                    terms.push(per(neg(mul(vec![div(v(0), n(2.0)), pow(v(1), n(2.0))])), conv_uniform(sys)));
-                }
+                let (with, term) = uniform_term(st, d, x, sys);
+                st = with;
+                terms.push(term);
             }
             for q in &pts {
                 let i = st.inputs.len();
@@ -327,7 +327,7 @@ pub(super) fn record_at(d: &Demand, p: &Prepared, tag: &str, at: &MomentsAt, tr:
             if c.factors[ki] != 0.0 && at.by_kind[ki] != 0.0 {
                 let i = st.inputs.len();
                 st = st.input(
-                    crate::trace::Symbol { math: format!("M_{}", kind.symbol()), plain: format!("M{}", kind.symbol()) },
+                    crate::trace::Symbol { math: sub_math("M", *kind), plain: format!("M{}", kind.symbol()) },
                     at.by_kind[ki] * km,
                     Unit::Moment,
                 );
@@ -360,25 +360,34 @@ pub(super) fn record_at(d: &Demand, p: &Prepared, tag: &str, at: &MomentsAt, tr:
                 sy("M_\"nc\"", "Mnc"),
             )
             .input(sy("w_\"nc\"", "wnc"), line_shown(sys, wnc), Unit::LineLoad);
-            let st = if between {
-                let xp = sub(v(1), v(2));
-                st.input(sy("x", "x"), x, Unit::Length)
-                    .input(sy("a", "a"), a, Unit::Length)
-                    .input(sy("S", "S"), d.span, Unit::Length)
-                    .formula(per(
-                        mul(vec![div(v(0), n(2.0)), sub(mul(vec![xp.clone(), sub(v(3), xp)]), pow(v(2), n(2.0)))]),
-                        conv_uniform(sys),
-                    ))
-            } else {
-                st.input(sy("x_o", "xo"), x.min(d.length - x), Unit::Length)
-                    .formula(per(neg(mul(vec![div(v(0), n(2.0)), pow(v(1), n(2.0))])), conv_uniform(sys)))
-            };
+            let (st, term) = uniform_term(st, d, x, sys);
+            let st = st.formula(term);
             st.result(at.mnc * km, Unit::Moment).note(if d.shored {
                 "the self-weight, carried by the precast unit alone (the topping was cast on a shored member)"
             } else {
                 "the self-weight and the topping, carried by the precast unit alone (unshored construction)"
             })
         });
+    }
+}
+
+/// The moment of a uniform load over the whole member at x, for a step whose input 0 is
+/// w: between the bearings w/2 (x'(S - x') - a²) with x' = x - a; over an overhang
+/// -w xo²/2, xo from the nearer end. Adds the step's inputs and gives the term.
+fn uniform_term(st: Step, d: &Demand, x: f64, sys: System) -> (Step, Expr) {
+    let (a, b) = d.bearings();
+    if x >= a && x <= b {
+        let st = st.input(sy("x", "x"), x, Unit::Length).input(sy("a", "a"), a, Unit::Length).input(
+            sy("S", "S"),
+            d.span,
+            Unit::Length,
+        );
+        let xp = sub(v(1), v(2));
+        let core = mul(vec![div(v(0), n(2.0)), sub(mul(vec![xp.clone(), sub(v(3), xp)]), pow(v(2), n(2.0)))]);
+        (st, per(core, conv_uniform(sys)))
+    } else {
+        let st = st.input(sy("x_o", "xo"), x.min(d.length - x), Unit::Length);
+        (st, per(neg(mul(vec![div(v(0), n(2.0)), pow(v(1), n(2.0))])), conv_uniform(sys)))
     }
 }
 
