@@ -308,8 +308,12 @@ fn sidecar_reads_with_sha256sum() {
 #[test]
 fn contents_points_at_the_right_sheets() {
     for (ex, pkg, r) in packages() {
-        // the contents of fourteen members runs over two sheets
-        let contents = pdf_text(&r.pdf, Some(2)) + &pdf_text(&r.pdf, Some(3));
+        // the contents runs from sheet 2 to the sheet before the design basis (over
+        // several sheets for fourteen members)
+        let basis = (2..=pages(&r.pdf))
+            .find(|&p| pdf_text(&r.pdf, Some(p)).contains("Design per "))
+            .unwrap_or_else(|| panic!("{ex}: no design basis"));
+        let contents: String = (2..basis).map(|p| pdf_text(&r.pdf, Some(p))).collect();
         assert!(!contents.contains('—'), "{ex}: a contents row has no sheet:\n{contents}");
         let sheet_of = |needle: &str| -> usize {
             let line = contents
@@ -341,4 +345,114 @@ fn contents_points_at_the_right_sheets() {
             assert!(pdf_text(&r.pdf, Some(s)).contains(part), "{ex}: {part} not on sheet {s}");
         }
     }
+}
+
+/// A member with loads: every kind, a point load and a reduced live-load factor.
+const LOADED: &str = r#"
+format = 1
+[package]
+title = "Loads of every kind"
+project = "Demand sheets"
+revision = "0"
+date = 2026-12-01
+units = "us"
+[[package.signoff]]
+role = "prepared"
+name = "A. Preparer"
+date = 2026-12-01
+[[member]]
+id = "RB-1"
+length = 480.0
+span = 468.0
+[member.loads]
+superimposed_dead = "15 psf"
+live = "40 psf"
+roof_live = "20 psf"
+snow = "30 psf"
+width = 96.0
+live_factor = 0.5
+live_factor_reason = "office floor below 100 psf"
+[[member.point_load]]
+name = "hung unit"
+kind = "dead"
+load = "6 kip"
+x = 216.0
+[member.concrete]
+fc = 6.0
+[member.section]
+shape = "rectangle"
+width = 16.0
+height = 32.0
+[[member.strands]]
+depth = 29.0
+count = 8
+diameter = 0.5
+fse = 160.0
+[[member.strands]]
+depth = 27.0
+count = 2
+diameter = 0.5
+fse = 160.0
+debonded_length = 48.0
+"#;
+
+// A member with loads has its demand sheet (loads, statics, combinations written out,
+// the reduced live-load factor with its clause, hogging shown but not checked), and its
+// capacity sheet (the diagram's labels and the station table, each station's values
+// as the analysis gives them, the rows derived in full naming their sheets).
+#[test]
+fn a_loaded_member_has_its_demand_sheet_and_station_table() {
+    let src = Source { name: "loaded.toml".into(), text: LOADED.into() };
+    let pkg = input::parse(&src).unwrap();
+    let a = strainsheet::analysis::analyze_full(&pkg).unwrap();
+    let r = strainsheet::report::render(&pkg, &src, &a, &strainsheet::report::Templates::builtin()).unwrap();
+    let n = pages(&r.pdf);
+    let sheets: Vec<String> = (1..=n).map(|p| squash(&pdf_text(&r.pdf, Some(p)))).collect();
+    let find = |needle: &str| sheets.iter().position(|t| t.contains(needle));
+    let demand = find("RB-1: demand along the span").expect("no demand sheet");
+    let capacity = find("RB-1: design strength and demand along the member").expect("no capacity sheet");
+    assert!(demand <= capacity);
+    let text = sheets[demand..].join(" ");
+    for words in [
+        "Moments by statics",
+        "Load combinations",
+        "= 1.2D + 1.6L + 0.5Lr",
+        "= 1.2D + 0.5L + 1.6S",
+        "ACI 318-19 5.3.3",
+        "office floor below 100 psf",
+        "hung unit",
+        "15.00 psf × 96.00 in",
+        "precast unit alone",
+        "composite section",
+        "Hogging at the overhangs",
+        "It is shown, not checked",
+        "Stations along the span",
+        "x from the left end (in)",
+        "not interpolated",
+    ] {
+        assert!(text.contains(words), "the demand and capacity sheets lack {words:?}");
+    }
+    // every station is a row, with its values as the analysis gives them
+    let m = &a.members[0];
+    assert!(m.stations.len() > 10);
+    for s in &m.stations {
+        let x = strainsheet::trace::show(s.x);
+        let phi_mn = strainsheet::trace::show(s.phi_mn);
+        assert!(text.contains(&x) && text.contains(&phi_mn), "station x = {x}: no row with φMn = {phi_mn}");
+        if let Some(i) = s.derived {
+            // a wrapped cell's lines may be read apart: the name is looked for on its own
+            assert!(text.contains(&m.locations[i].name), "station x = {x}: its location is not named");
+            assert!(find(&format!("RB-1 · {}", m.locations[i].name)).is_some());
+        }
+    }
+    let derived = m.stations.iter().filter(|s| s.derived.is_some()).count();
+    assert!(derived >= 1);
+    assert_eq!(
+        text.matches("derived in full: sheets of RB-1 ·").count(),
+        derived,
+        "a derived row does not name its sheets"
+    );
+    // the location sheets begin with the demand at their section
+    assert!(text.contains("Demand at this section, from the member"));
+    assert!(text.contains("derived from the member’s loads"));
 }

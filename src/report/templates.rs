@@ -14,6 +14,7 @@ const BUILTIN: &[(&str, &str)] = &[
     ("member.typ", include_str!("../../templates/member.typ")),
     ("figures.typ", include_str!("../../templates/figures.typ")),
     ("curve.typ", include_str!("../../templates/curve.typ")),
+    ("demand.typ", include_str!("../../templates/demand.typ")),
 ];
 
 /// Names the world reserves for the package's data.

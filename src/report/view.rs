@@ -85,6 +85,8 @@ pub struct PackageView<'a> {
 pub struct ContentsEntry {
     pub id: String,
     pub description: String,
+    /// The member has loads: its demand sheet and capacity diagram are listed too.
+    pub has_demand: bool,
     pub locations: Vec<ContentsLocation>,
 }
 
@@ -176,6 +178,7 @@ pub fn contents(members: &[MemberPayload]) -> Vec<ContentsEntry> {
         .map(|m| ContentsEntry {
             id: m.shown.id.to_string(),
             description: m.shown.description.to_string(),
+            has_demand: m.shown.demand.is_some(),
             locations: m
                 .locations
                 .iter()
@@ -375,7 +378,161 @@ mod tests {
         "members[].locations[].shown.min_required",
         "members[].locations[].shown.trials",
         "members[].locations[].shown.closure",
+        "members[].locations[].demand_from_loads",
     ];
+
+    /// The keys demand.typ reads of a member with loads (the demand sheet, the capacity
+    /// diagram and the station table).
+    const DEMAND: &[&str] = &[
+        "members[].demand.length",
+        "members[].demand.span",
+        "members[].demand.bearing",
+        "members[].demand.width",
+        "members[].demand.line_unit",
+        "members[].demand.shored",
+        "members[].demand.loads[].kind",
+        "members[].demand.loads[].symbol",
+        "members[].demand.loads[].source",
+        "members[].demand.loads[].area_load",
+        "members[].demand.loads[].w",
+        "members[].demand.loads[].carried_by",
+        "members[].demand.points[].kind",
+        "members[].demand.points[].symbol",
+        "members[].demand.points[].name",
+        "members[].demand.points[].p",
+        "members[].demand.points[].x",
+        "members[].demand.combinations[].name",
+        "members[].demand.combinations[].text",
+        "members[].demand.combinations[].governs",
+        "members[].demand.combinations_clause",
+        "members[].demand.live_reduced.factor",
+        "members[].demand.live_reduced.reason",
+        "members[].demand.live_reduced.clause",
+        "members[].demand.absent",
+        "members[].demand.hogging",
+        "members[].demand.has_overhangs",
+        "members[].demand.kinds",
+        "members[].demand.derived_count",
+        "members[].demand.untraced_count",
+        "members[].demand.stations[].x",
+        "members[].demand.stations[].what",
+        "members[].demand.stations[].end_region",
+        "members[].demand.stations[].by_kind",
+        "members[].demand.stations[].mu",
+        "members[].demand.stations[].combination",
+        "members[].demand.stations[].mnc",
+        "members[].demand.stations[].phi",
+        "members[].demand.stations[].phi_mn",
+        "members[].demand.stations[].ratio",
+        "members[].demand.stations[].min_ok",
+        "members[].demand.stations[].status",
+        "members[].demand.stations[].status_word",
+        "members[].demand.stations[].derived",
+        "members[].demand.stations[].role",
+        "members[].demand.diagram.x_range",
+        "members[].demand.diagram.y_range",
+        "members[].demand.diagram.x_ticks[].value",
+        "members[].demand.diagram.x_ticks[].label",
+        "members[].demand.diagram.y_ticks[].value",
+        "members[].demand.diagram.y_ticks[].label",
+        "members[].demand.diagram.x_label",
+        "members[].demand.diagram.y_label",
+        "members[].demand.diagram.phi_mn",
+        "members[].demand.diagram.mu",
+        "members[].demand.diagram.bearings",
+        "members[].demand.diagram.regions",
+        "members[].demand.diagram.marks[].x",
+        "members[].demand.diagram.marks[].label",
+        "members[].demand.diagram.marks[].row",
+        "members[].demand.diagram.governing.x",
+        "members[].demand.diagram.governing.phi_mn",
+        "members[].demand.diagram.governing.mu",
+        "members[].demand.diagram.governing.label",
+        "members[].demand.diagram.key",
+    ];
+
+    /// A member with every kind of load, a point load and a reduced live-load factor,
+    /// beside one without loads.
+    const LOADED: &str = r#"
+format = 1
+[package]
+title = "Loads of every kind"
+project = "View keys"
+revision = "0"
+date = 2026-12-01
+units = "us"
+[[package.signoff]]
+role = "prepared"
+name = "A. Preparer"
+[[member]]
+id = "RB-1"
+length = 480.0
+span = 468.0
+[member.loads]
+superimposed_dead = "15 psf"
+live = "40 psf"
+roof_live = "20 psf"
+snow = "30 psf"
+width = 96.0
+live_factor = 0.5
+live_factor_reason = "office floor below 100 psf"
+[[member.point_load]]
+name = "hung unit"
+kind = "dead"
+load = "6 kip"
+x = 216.0
+[member.concrete]
+fc = 6.0
+[member.section]
+shape = "rectangle"
+width = 16.0
+height = 32.0
+[[member.strands]]
+depth = 29.0
+count = 8
+diameter = 0.5
+fse = 160.0
+[[member.strands]]
+depth = 27.0
+count = 2
+diameter = 0.5
+fse = 160.0
+debonded_length = 48.0
+[[member]]
+id = "RB-2"
+length = 480.0
+[member.concrete]
+fc = 6.0
+[member.section]
+shape = "rectangle"
+width = 16.0
+height = 32.0
+[[member.strands]]
+depth = 29.0
+count = 8
+diameter = 0.5
+fse = 160.0
+[[member.location]]
+name = "midspan"
+x = 240.0
+mu = 300.0
+"#;
+
+    #[test]
+    fn a_member_with_loads_has_its_demand_in_the_view_and_one_without_has_none() {
+        let src = crate::input::Source { name: "loaded.toml".into(), text: LOADED.into() };
+        let pkg = crate::input::parse(&src).unwrap();
+        let a = crate::analysis::analyze_full(&pkg).unwrap();
+        let p = payload::build(&pkg, &src, &a, &Provenance { templates: "builtin" });
+        let members = MembersView { head: &p.head, first: 0, members: super::members(&p.members[..1]) };
+        assert_keys("a loaded member's view", &members, DEMAND);
+        let v = serde_json::to_value(super::members(&p.members[1..])).unwrap();
+        assert!(v[0].get("demand").is_none(), "a member without loads has no demand sheet");
+        let raw = serde_json::to_value(&p.members[1]).unwrap();
+        assert!(raw.get("demand_data").is_none() && raw.get("stations").is_none());
+        let entries = contents(&p.members);
+        assert!(entries[0].has_demand && !entries[1].has_demand);
+    }
 
     /// The keys curve.typ reads of a member's plot.
     const CURVE: &[&str] = &[
@@ -430,6 +587,7 @@ mod tests {
         "conditional_locations",
         "members[].id",
         "members[].description",
+        "members[].has_demand",
         "members[].locations[].name",
         "members[].locations[].shown.x_label",
         "members[].locations[].shown.mu",

@@ -116,7 +116,7 @@ pub fn plot<'a>(c: &'a CurveResult, l: &LocationResult, sys: System) -> CurvePlo
 /// up to the last one not beyond hi. They start at the first tick not below lo, or at
 /// the one below lo where that would leave over 40 % of a step unlabelled (a curve that
 /// starts well left of zero gets a labelled negative tick; the axis then starts there).
-fn ticks(lo: f64, hi: f64) -> Vec<f64> {
+pub(super) fn ticks(lo: f64, hi: f64) -> Vec<f64> {
     let span = (hi - lo).abs();
     if span <= 0.0 || !span.is_finite() {
         return vec![lo];
@@ -136,7 +136,7 @@ fn ticks(lo: f64, hi: f64) -> Vec<f64> {
 }
 
 /// A tick label: short, no trailing zeros.
-fn tick_label(t: f64) -> String {
+pub(super) fn tick_label(t: f64) -> String {
     let s = fixed(t, 3);
     let s = s.trim_end_matches('0').trim_end_matches('.');
     if s == "-0" { "0".into() } else { minus(s.to_string()) }

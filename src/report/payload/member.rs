@@ -3,11 +3,13 @@
 //! moment-curvature plot).
 
 use super::curve::{CurvePlot, plot};
+use super::demand::{DemandShown, demand};
 use super::location::{LocationPayload, location};
 use super::printed;
 use super::step::{StepPayload, step};
 use crate::analysis::curve::CurveResult;
-use crate::analysis::{MemberResult, SectionResult};
+use crate::analysis::demand::Demand;
+use crate::analysis::{MemberResult, SectionResult, StationRow};
 use crate::basis::Basis;
 use crate::input::model::{BarLayer, Default, Kind, Member, Profile, StrandLayer};
 use crate::section::shapes::Shape;
@@ -22,6 +24,12 @@ pub struct MemberPayload<'a> {
     /// The member's input as read (coherent units).
     pub input: &'a Member,
     pub curve_data: Option<&'a CurveResult>,
+    /// The demand from the member's loads and every station along the span, as the
+    /// analysis gives them (members with loads).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub demand_data: Option<&'a Demand>,
+    #[serde(skip_serializing_if = "<[_]>::is_empty")]
+    pub stations: &'a [StationRow],
     pub steps: Vec<StepPayload<'a>>,
     pub locations: Vec<LocationPayload<'a>>,
 }
@@ -47,6 +55,9 @@ pub struct MemberShown<'a> {
     pub bars: Vec<BarRow>,
     pub curve: Option<CurvePlot<'a>>,
     pub curve_error: Option<&'a str>,
+    /// The demand sheet, the capacity diagram and the station table (members with loads).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub demand: Option<DemandShown>,
 }
 
 /// The section's overall dimensions, with their unit.
@@ -122,11 +133,14 @@ pub fn member<'a>(m: &'a MemberResult, input: &'a Member, basis: &dyn Basis) -> 
         bars: input.bars.iter().enumerate().map(|(i, b)| bar_row(i, b)).collect(),
         curve: m.curve.as_ref().map(|c| plot(c, m.governing(), sys)),
         curve_error: m.curve_error.as_deref(),
+        demand: m.demand.as_ref().map(|d| demand(m, d, basis)),
     };
     MemberPayload {
         shown,
         input,
         curve_data: m.curve.as_ref(),
+        demand_data: m.demand.as_ref(),
+        stations: &m.stations,
         steps: m.trace.iter().map(|s| step(s, sys)).collect(),
         locations: m.locations.iter().map(|l| location(l, sys)).collect(),
     }

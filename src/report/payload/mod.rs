@@ -10,6 +10,7 @@
 //! the payload without an edit here.
 
 mod curve;
+mod demand;
 mod location;
 mod member;
 pub mod omit;
@@ -17,6 +18,7 @@ mod step;
 mod stored;
 
 pub use curve::{CurvePlot, Line, MarkShown, Tick};
+pub use demand::{DemandShown, Diagram, StationShown};
 pub use location::{LayerShown, LocationPayload, LocationShown, TrialShown, ValuesShown};
 pub use member::{BarRow, MemberPayload, MemberShown, Ring, SectionShown, StrandRow};
 pub use step::{InputShown, StepPayload, StepShown};
