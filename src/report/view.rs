@@ -389,6 +389,7 @@ mod tests {
         "members[].demand.bearing",
         "members[].demand.width",
         "members[].demand.line_unit",
+        "members[].demand.area_loads",
         "members[].demand.shored",
         "members[].demand.loads[].kind",
         "members[].demand.loads[].symbol",

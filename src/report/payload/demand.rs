@@ -23,6 +23,8 @@ pub struct DemandShown {
     pub span: String,
     pub bearing: String,
     pub width: String,
+    /// Some load is given as an area load (over the tributary width).
+    pub area_loads: bool,
     /// The unit of a line load ("klf").
     pub line_unit: &'static str,
     /// The topping was cast on a shored member (its weight on the composite section).
@@ -60,7 +62,7 @@ pub struct LoadRow {
     /// The area load and the width it is taken over, where it was given as one.
     pub area_load: Option<String>,
     pub w: String,
-    /// "precast unit alone" or "composite section".
+    /// "precast unit alone" or "composite section" ("the section" without a topping).
     pub carried_by: &'static str,
 }
 
@@ -195,7 +197,11 @@ pub fn demand(m: &MemberResult, d: &Demand, basis: &dyn Basis) -> DemandShown {
                 format!("{} {} × {}", printed(pressure_shown(sys, q)), Unit::Pressure.name(sys), length(d.width))
             }),
             w: printed(line_shown(sys, l.w)),
-            carried_by: if l.precast_only { "precast unit alone" } else { "composite section" },
+            carried_by: match (m.section.composite.is_some(), l.precast_only) {
+                (false, _) => "the section",
+                (true, true) => "precast unit alone",
+                (true, false) => "composite section",
+            },
         })
         .collect();
     let points = d
@@ -230,6 +236,7 @@ pub fn demand(m: &MemberResult, d: &Demand, basis: &dyn Basis) -> DemandShown {
         span: length(d.span),
         bearing: length(d.bearing),
         width: length(d.width),
+        area_loads: d.uniform.iter().any(|l| l.area_load.is_some()),
         line_unit: Unit::LineLoad.name(sys),
         shored: d.shored,
         loads,
