@@ -304,7 +304,9 @@ pub(super) fn record_at(d: &Demand, p: &Prepared, tag: &str, at: &MomentsAt, tr:
             }
             for q in &pts {
                 let i = st.inputs.len();
-                st = st.input(crate::trace::Symbol { math: format!("M_(\"{}\")", q.name), plain: format!("M,{}", q.name) }, d.point_moment(q.p, q.x, x) * km, Unit::Moment);
+                // the load's number, not its name: user text never enters a math string
+                let j = d.points.iter().position(|p| std::ptr::eq(p, *q)).unwrap_or(0) + 1;
+                st = st.input(crate::trace::Symbol { math: format!("M_(P {j})"), plain: format!("M,P{j}") }, d.point_moment(q.p, q.x, x) * km, Unit::Moment);
                 terms.push(v(i));
             }
             let formula = if terms.len() == 1 { terms.remove(0) } else { add(terms) };
@@ -314,7 +316,14 @@ pub(super) fn record_at(d: &Demand, p: &Prepared, tag: &str, at: &MomentsAt, tr:
                 "over the overhang past a bearing: M = -w xo²/2"
             });
             if !pts.is_empty() {
-                note.push_str("; point loads by statics (their reactions over the span S)");
+                let names: Vec<String> = d
+                    .points
+                    .iter()
+                    .enumerate()
+                    .filter(|(_, p)| p.kind == *kind)
+                    .map(|(j, p)| format!("P{} {}", j + 1, p.name))
+                    .collect();
+                note.push_str(&format!("; point loads by statics, their reactions over the span S ({})", names.join(", ")));
             }
             st.formula(formula).result(at.by_kind[ki] * km, Unit::Moment).note(note)
         });
