@@ -348,53 +348,7 @@ fn contents_points_at_the_right_sheets() {
 }
 
 /// A member with loads: every kind, a point load and a reduced live-load factor.
-const LOADED: &str = r#"
-format = 1
-[package]
-title = "Loads of every kind"
-project = "Demand sheets"
-revision = "0"
-date = 2026-12-01
-units = "us"
-[[package.signoff]]
-role = "prepared"
-name = "A. Preparer"
-date = 2026-12-01
-[[member]]
-id = "RB-1"
-length = 480.0
-span = 468.0
-[member.loads]
-superimposed_dead = "15 psf"
-live = "40 psf"
-roof_live = "20 psf"
-snow = "30 psf"
-width = 96.0
-live_factor = 0.5
-live_factor_reason = "office floor below 100 psf"
-[[member.point_load]]
-name = "hung unit"
-kind = "dead"
-load = "6 kip"
-x = 216.0
-[member.concrete]
-fc = 6.0
-[member.section]
-shape = "rectangle"
-width = 16.0
-height = 32.0
-[[member.strands]]
-depth = 29.0
-count = 8
-diameter = 0.5
-fse = 160.0
-[[member.strands]]
-depth = 27.0
-count = 2
-diameter = 0.5
-fse = 160.0
-debonded_length = 48.0
-"#;
+const LOADED: &str = include_str!("fixtures/loads-of-every-kind.toml");
 
 // A member with loads has its demand sheet (loads, statics, combinations written out,
 // the reduced live-load factor with its clause, hogging shown but not checked), and its

@@ -410,14 +410,6 @@ pub struct Member {
 }
 
 impl Member {
-    /// A location's place along the member (`None` where the location gives no x; the
-    /// input check allows x only on members with a length).
-    pub fn along(&self, loc: &Location) -> Option<Along> {
-        match (loc.x, self.length) {
-            (Some(x), Some(length)) => Some(Along { x, length }),
-            _ => None,
-        }
-    }
     /// Height of the precast unit.
     pub fn precast_height(&self) -> f64 {
         self.region.y_top() - self.region.y_bot()

@@ -454,51 +454,9 @@ mod tests {
 
     /// A member with every kind of load, a point load and a reduced live-load factor,
     /// beside one without loads.
-    const LOADED: &str = r#"
-format = 1
-[package]
-title = "Loads of every kind"
-project = "View keys"
-revision = "0"
-date = 2026-12-01
-units = "us"
-[[package.signoff]]
-role = "prepared"
-name = "A. Preparer"
-[[member]]
-id = "RB-1"
-length = 480.0
-span = 468.0
-[member.loads]
-superimposed_dead = "15 psf"
-live = "40 psf"
-roof_live = "20 psf"
-snow = "30 psf"
-width = 96.0
-live_factor = 0.5
-live_factor_reason = "office floor below 100 psf"
-[[member.point_load]]
-name = "hung unit"
-kind = "dead"
-load = "6 kip"
-x = 216.0
-[member.concrete]
-fc = 6.0
-[member.section]
-shape = "rectangle"
-width = 16.0
-height = 32.0
-[[member.strands]]
-depth = 29.0
-count = 8
-diameter = 0.5
-fse = 160.0
-[[member.strands]]
-depth = 27.0
-count = 2
-diameter = 0.5
-fse = 160.0
-debonded_length = 48.0
+    const LOADED: &str = concat!(
+        include_str!("../../tests/fixtures/loads-of-every-kind.toml"),
+        r#"
 [[member]]
 id = "RB-2"
 length = 480.0
@@ -517,7 +475,8 @@ fse = 160.0
 name = "midspan"
 x = 240.0
 mu = 300.0
-"#;
+"#
+    );
 
     #[test]
     fn a_member_with_loads_has_its_demand_in_the_view_and_one_without_has_none() {
