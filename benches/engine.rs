@@ -3,6 +3,7 @@
 //! solve: one member (12-vertex polygon, 3 strand layers), check path (no trace);
 //! clip: the area above a depth of a hollow-core plank and of a double tee;
 //! curve: a 200-point moment-curvature curve of a topped double tee;
+//! phi Mn at 100 stations: the strength solution along a member (no trace);
 //! render: the calculation package of a 10-member package.
 
 use criterion::{Criterion, criterion_group, criterion_main};
@@ -87,6 +88,18 @@ fn benches(c: &mut Criterion) {
     c.bench_function("curve: 200 points, topped double tee", |b| {
         b.iter(|| analysis::curve::moment_curvature(black_box(dm), dt.basis(), &site, 2).unwrap())
     });
+
+    // phi Mn at 100 stations along a member: the loaded, topped, harped double tee and
+    // the inverted-tee girder of the demos
+    for (file, i) in [("parking-double-tee.toml", 0), ("inverted-tee-girder.toml", 0)] {
+        let (_, pk) = example(file);
+        let m = &pk.members[i];
+        let len = m.length.expect("the demos give their length");
+        let xs: Vec<f64> = (0..100).map(|k| len * (k as f64 + 0.5) / 100.0).collect();
+        c.bench_function(&format!("phi Mn at 100 stations: {} ({file})", m.id), |b| {
+            b.iter(|| analysis::phi_mn_along(black_box(m), pk.basis(), &xs).unwrap())
+        });
+    }
 
     // a 10-member package: the double tees repeated
     let text = std::fs::read_to_string(

@@ -83,12 +83,35 @@ impl Steel {
     }
 }
 
-struct Fibres {
+/// The concrete strips of a member's section: cut once per member, shared by the
+/// curves of all its sections.
+struct Layers {
+    precast: Strips,
+    topping: Option<Strips>,
+}
+
+impl Layers {
+    fn of(p: &Prepared) -> Layers {
+        let m = p.m;
+        let strips_n = m.curve.strips;
+        let precast = strips(&m.region, m.region.y_bot(), p.top_p, strips_n);
+        let topping = match (&m.topping, &p.topping_region) {
+            (Some(t), Some(r)) => {
+                let n = ((strips_n as f64) * t.thickness / m.precast_height()).ceil().max(20.0) as usize;
+                Some(strips(r, p.top_p, p.top, n))
+            }
+            _ => None,
+        };
+        Layers { precast, topping }
+    }
+}
+
+struct Fibres<'a> {
     /// Reference level: the centroid of the precast unit.
     yr: f64,
-    precast: Strips,
+    precast: &'a Strips,
     law_p: Law,
-    topping: Option<(Strips, Law)>,
+    topping: Option<(&'a Strips, Law)>,
     steel: Vec<Steel>,
     hardening: bool,
     y_top_p: f64,
@@ -108,7 +131,7 @@ struct State {
     dk: f64,
 }
 
-impl Fibres {
+impl Fibres<'_> {
     #[inline]
     fn precast_strain(&self, s: &State, y: f64) -> f64 {
         (s.e0 + s.d0) - (s.k0 + s.dk) * (y - self.yr)
@@ -261,7 +284,7 @@ fn fail(m: &Member, loc: &Station, why: &str) -> Error {
     }
 }
 
-fn build(p: &Prepared, loc: &Station, li: usize) -> Fibres {
+fn build<'a>(p: &Prepared, layers: &'a Layers, loc: &Station, li: usize) -> Fibres<'a> {
     let m = p.m;
     let sys = p.sys;
     let mut tr = Trace::new(false);
@@ -269,12 +292,11 @@ fn build(p: &Prepared, loc: &Station, li: usize) -> Fibres {
     let opts = m.curve;
     let c = &m.concrete;
     let law_p = Law::new(c.curve, c.fc, c.ec, c.fr, sys);
-    let precast = strips(&m.region, m.region.y_bot(), p.top_p, opts.strips);
-    let topping = match (&m.topping, &p.topping_region) {
-        (Some(t), Some(r)) => {
-            let n = ((opts.strips as f64) * t.thickness / m.precast_height()).ceil().max(20.0) as usize;
+    let precast = &layers.precast;
+    let topping = match (&m.topping, &layers.topping) {
+        (Some(t), Some(st)) => {
             let tc = &t.concrete;
-            Some((strips(r, p.top_p, p.top, n), Law::new(tc.curve, tc.fc, tc.ec, tc.fr, sys)))
+            Some((st, Law::new(tc.curve, tc.fc, tc.ec, tc.fr, sys)))
         }
         _ => None,
     };
@@ -320,22 +342,53 @@ fn build(p: &Prepared, loc: &Station, li: usize) -> Fibres {
 /// The moment-curvature curve of a member at one of its checked sections (`li`: its
 /// index, for the step ids).
 pub fn moment_curvature(m: &Member, basis: &'static dyn Basis, loc: &Station, li: usize) -> Result<CurveResult> {
-    moment_curvature_points(m, basis, loc, li, m.curve.points)
+    let p = prepare(m, basis, &mut Trace::new(false))?;
+    curve_points(&p, &Layers::of(&p), loc, li, m.curve.points)
+}
+
+/// What settles strand rupture at the sections of one member: the end of each section's
+/// curve, kept by everything the curve depends on (each layer's bond, depth and
+/// prestrain, and the non-composite moment of a topped member), so that sections alike in
+/// all of these (a symmetric member's two halves, the fully bonded middle of an untopped
+/// one) march once. The key is exact: nothing is rounded.
+pub(super) struct CurveEnds<'a> {
+    p: &'a Prepared<'a>,
+    layers: Option<Layers>,
+    ends: std::collections::HashMap<Vec<u64>, std::result::Result<CurveResult, String>>,
+}
+
+impl<'a> CurveEnds<'a> {
+    pub(super) fn new(p: &'a Prepared<'a>) -> CurveEnds<'a> {
+        CurveEnds { p, layers: None, ends: std::collections::HashMap::new() }
+    }
+
+    pub(super) fn units(&self) -> crate::units::System {
+        self.p.sys
+    }
+
+    /// The end of a section's curve and what ended it (the march does not depend on
+    /// the number of points; the cracking and yield events between points are not
+    /// sought, as the end does not depend on them either).
+    pub(super) fn end_of(&mut self, loc: &Station, li: usize) -> &std::result::Result<CurveResult, String> {
+        let p = self.p;
+        let at = strands_at(p, li, loc, &mut Trace::new(false));
+        let mut key: Vec<u64> = at.iter().flat_map(|a| [a.active as u64, a.d.to_bits(), a.eps1.to_bits()]).collect();
+        if p.m.topping.is_some() {
+            key.push(loc.mnc.to_bits());
+        }
+        let layers = self.layers.get_or_insert_with(|| Layers::of(p));
+        self.ends.entry(key).or_insert_with(|| curve_points(p, layers, loc, li, 0).map_err(|e| e.to_string()))
+    }
 }
 
 /// The curve with `points` points after the march (at least 2). The march, and so the
 /// end and what ended the curve, do not depend on it; the peak is that of the points.
-pub fn moment_curvature_points(
-    m: &Member,
-    basis: &'static dyn Basis,
-    loc: &Station,
-    li: usize,
-    points: usize,
-) -> Result<CurveResult> {
-    let sys = basis.units();
+/// `points` 0 asks for the end alone: two points, no cracking or yield event sought.
+fn curve_points(p: &Prepared, layers: &Layers, loc: &Station, li: usize, points: usize) -> Result<CurveResult> {
+    let m = p.m;
+    let sys = p.sys;
     let mut tr = Trace::new(false);
-    let p = prepare(m, basis, &mut tr)?;
-    let f = build(&p, loc, li);
+    let f = build(p, layers, loc, li);
     let opts = m.curve;
     let h = m.total_height();
     let km = p.cv.km;
@@ -469,6 +522,7 @@ pub fn moment_curvature_points(
     // points: denser at the start, where cracking happens; each solved from the
     // marched state just below it, so it lies on the same branch
     let n = points.max(2);
+    let events = points > 0;
     let mut states: Vec<(f64, State)> = Vec::with_capacity(n + 4);
     let mut k = 0;
     for j in 1..=n {
@@ -488,7 +542,7 @@ pub fn moment_curvature_points(
     let mut insert = Vec::new();
     let mut yielding = None;
     let mut prev = (0.0, base);
-    for &(dk, st) in &states {
+    for &(dk, st) in states.iter().filter(|_| events) {
         let crack = |s: &State| f.precast_strain(s, y_bot_strip) - eps_cr;
         if cracking.is_none() && crack(&prev.1) < 0.0 && crack(&st) >= 0.0 {
             let gc = |x: f64| solve_from(&prev.1, x).map_or(f64::NAN, |s| crack(&s));
@@ -549,7 +603,7 @@ pub fn moment_curvature_points(
     if !m.bars.is_empty() {
         notes.push("Bars start unstressed at the prestressed state (their share of the prestress shortening is neglected, as in the strength calculation).".into());
     }
-    if loc.x.is_some() && p.m.strands.iter().zip(strands_at(&p, li, loc, &mut tr).iter()).any(|(s, a)| a.fse < s.fse) {
+    if loc.x.is_some() && p.m.strands.iter().zip(strands_at(p, li, loc, &mut tr).iter()).any(|(s, a)| a.fse < s.fse) {
         notes.push("Strand within its transfer length carries the reduced prestress here; the stress limits of 25.4.8.3 are not applied in the fibre analysis.".into());
     }
     Ok(CurveResult {

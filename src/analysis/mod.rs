@@ -148,8 +148,9 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
         })?;
         sites.push(site);
     }
+    let mut ends = curve::CurveEnds::new(&p);
     let stations = match &demand {
-        Some(d) => along_span(&p, d, &mut sites)?,
+        Some(d) => along_span(&p, d, &mut sites, &mut ends)?,
         None => Vec::new(),
     };
     let mut locations = Vec::with_capacity(sites.len());
@@ -165,7 +166,7 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
             r.trace = steps;
             r.demand_from_loads = d.combinations.get(at.combination).map(|c| c.name.clone());
         }
-        settle_with_curve(m, basis, site, li, &mut r);
+        settle_with_curve(&mut ends, site, li, &mut r);
         locations.push(r);
     }
     let governing =
@@ -219,28 +220,25 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
 
 /// Settles a section's words, asking its moment-curvature curve where strand is strained
 /// beyond its elongation (whether it ruptures before the demand is carried).
-fn settle_with_curve(
-    m: &Member,
-    basis: &'static dyn Basis,
-    site: &station::Station,
-    li: usize,
-    r: &mut LocationResult,
-) {
-    // only the end of the curve is asked for: two points (the march is the same)
-    let curve = r.rupture_risk.then(|| curve::moment_curvature_points(m, basis, site, li, 2));
-    let check = match &curve {
+fn settle_with_curve(ends: &mut curve::CurveEnds, site: &station::Station, li: usize, r: &mut LocationResult) {
+    let sys = ends.units();
+    let check = match r.rupture_risk.then(|| ends.end_of(site, li)) {
         None => conclusion::RuptureCheck::NotAsked,
         Some(Ok(c)) => conclusion::RuptureCheck::Curve(c),
-        Some(Err(e)) => conclusion::RuptureCheck::Failed(e.to_string()),
+        Some(Err(e)) => conclusion::RuptureCheck::Failed(e.clone()),
     };
-    conclusion::settle(r, basis.units(), check);
+    conclusion::settle(r, sys, check);
 }
 
 /// Every station along the span, as a table row; the governing station and the critical
 /// station of each end region join `sites`, to be derived in full.
-fn along_span(p: &prepare::Prepared, d: &demand::Demand, sites: &mut Vec<station::Station>) -> Result<Vec<StationRow>> {
+fn along_span(
+    p: &prepare::Prepared,
+    d: &demand::Demand,
+    sites: &mut Vec<station::Station>,
+    ends: &mut curve::CurveEnds,
+) -> Result<Vec<StationRow>> {
     let m = p.m;
-    let basis = p.basis;
     let km = p.cv.km;
     let len = d.length;
     let at = |x: f64, name: String| {
@@ -271,7 +269,7 @@ fn along_span(p: &prepare::Prepared, d: &demand::Demand, sites: &mut Vec<station
     for (x, what) in station::positions(m, d.span, d.bearing, &lengths, &points) {
         let site = at(x, format!("x = {} {}", crate::trace::show(x), p.sys.names().length));
         let mut r = location::location(p, 0, &site, false)?;
-        settle_with_curve(m, basis, &site, 0, &mut r);
+        settle_with_curve(ends, &site, 0, &mut r);
         let mo = site.moments.as_ref().map_or_else(|| d.at(x), |mo| mo.clone());
         let end_region = if x <= region {
             Some(crate::input::model::End::Left)
@@ -321,6 +319,20 @@ fn along_span(p: &prepare::Prepared, d: &demand::Demand, sites: &mut Vec<station
         sites.push(at(x, format!("{role} (x = {} {})", crate::trace::show(x), p.sys.names().length)));
     }
     Ok(rows)
+}
+
+/// phi Mn at each x along a member (from its left end), untraced: the strength solution
+/// of the station table without its demand, minimum-strength check or the settling of
+/// strand rupture. For benchmarks and callers who want the capacity alone.
+pub fn phi_mn_along(m: &Member, basis: &'static dyn Basis, xs: &[f64]) -> Result<Vec<f64>> {
+    let p = prepare(m, basis, &mut Trace::new(false))?;
+    xs.iter()
+        .map(|&x| {
+            let name = format!("x = {}", crate::trace::show(x));
+            let site = station::Station { name, x: Some(x), mu: 0.0, mnc: 0.0, mnc_scaled: false, moments: None };
+            location::location(&p, 0, &site, false).map(|r| r.phi_mn)
+        })
+        .collect()
 }
 
 /// Whether a member is a one-way slab for the minimum-reinforcement clause.
