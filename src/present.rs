@@ -139,6 +139,9 @@ struct StationJson<'a> {
     /// The name of its full derivation among `locations`, where it has one.
     #[serde(skip_serializing_if = "Option::is_none")]
     derived_as: Option<&'a str>,
+    /// The x of the station this one mirrors: its derivation is that one's.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    mirror_of: Option<f64>,
 }
 
 fn station_json<'a>(m: &'a MemberResult, s: &'a crate::analysis::StationRow) -> StationJson<'a> {
@@ -156,6 +159,7 @@ fn station_json<'a>(m: &'a MemberResult, s: &'a crate::analysis::StationRow) -> 
         status: s.status,
         end_region: s.end_region,
         derived_as: s.derived.and_then(|i| m.locations.get(i)).map(|l| l.name.as_str()),
+        mirror_of: s.mirror_of,
     }
 }
 

@@ -297,6 +297,7 @@ fn along_span(
             conditions: r.conditions.iter().map(|c| c.kind).collect(),
             derived: None,
             role: None,
+            mirror_of: None,
         });
     }
     // the governing station, then the critical station of each end region
@@ -314,11 +315,45 @@ fn along_span(
             continue;
         }
         rows[i].role = Some(role);
+        // the right end region's critical station of a symmetric member is the mirror
+        // image of the left's: one derivation serves both
+        let left = picks[1].0.filter(|&j| j != i && rows[j].derived.is_some());
+        if let Some(j) = left.filter(|&j| role == picks[2].1 && mirrors(p, len, &rows[j], &rows[i])) {
+            rows[i].derived = rows[j].derived;
+            rows[i].mirror_of = Some(rows[j].x);
+            continue;
+        }
         rows[i].derived = Some(sites.len());
         let x = rows[i].x;
         sites.push(at(x, format!("{role} (x = {} {})", crate::trace::show(x), p.sys.names().length)));
     }
     Ok(rows)
+}
+
+/// Whether station `b` is the mirror image of station `a` about the middle of the
+/// member's length: at x and L - x, each layer at the same depth, bonded alike with
+/// the same prestress, and the same moments, strength, checks and result (to 1e-9).
+fn mirrors(p: &prepare::Prepared, len: f64, a: &StationRow, b: &StationRow) -> bool {
+    let close = |u: f64, v: f64| (u - v).abs() <= 1e-9 * u.abs().max(v.abs()).max(1.0);
+    let strands = |x: f64| {
+        let site =
+            station::Station { name: String::new(), x: Some(x), mu: 0.0, mnc: 0.0, mnc_scaled: false, moments: None };
+        prestress::strands_at(p, 0, &site, &mut Trace::new(false))
+    };
+    let same_strands = strands(a.x)
+        .iter()
+        .zip(strands(b.x).iter())
+        .all(|(s, t)| s.active == t.active && close(s.d, t.d) && close(s.fse, t.fse) && close(s.eps1, t.eps1));
+    let numbers = [(a.mu, b.mu), (a.mnc, b.mnc), (a.phi, b.phi), (a.mn, b.mn), (a.phi_mn, b.phi_mn), (a.mcr, b.mcr)];
+    close(a.x + b.x, len)
+        && same_strands
+        && numbers.iter().all(|&(u, v)| close(u, v))
+        && a.by_kind.iter().zip(&b.by_kind).all(|(&u, &v)| close(u, v))
+        && a.combination == b.combination
+        && a.min_ok == b.min_ok
+        && a.status == b.status
+        && a.pass == b.pass
+        && a.conditions == b.conditions
 }
 
 /// phi Mn at each x along a member (from its left end), untraced: the strength solution

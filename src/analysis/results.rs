@@ -275,6 +275,10 @@ pub struct StationRow {
     pub derived: Option<usize>,
     /// "governing station", or the critical station of an end region.
     pub role: Option<&'static str>,
+    /// The x of the station this one mirrors (the right end region's critical station
+    /// of a member symmetric about the middle of its length): same strand states,
+    /// moments and strength, so its derivation is that station's.
+    pub mirror_of: Option<f64>,
 }
 
 impl MemberResult {

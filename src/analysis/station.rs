@@ -94,16 +94,34 @@ pub fn positions(
     let tol = 1e-9 * len;
     xs.retain(|(x, _)| x.is_finite() && *x > tol && *x < len - tol);
     xs.sort_by(|a, b| a.0.total_cmp(&b.0));
-    let mut out: Vec<(f64, Vec<String>)> = Vec::new();
+    // points closer than 1e-6 L are one station: of such a cluster, the point nearest
+    // its nearer end of the member (the lower strength where a transfer or development
+    // length ends), the middle itself where the cluster holds it, so that a symmetric
+    // member's stations are symmetric too
+    let near = 1e-6 * len;
+    let mut clusters: Vec<(Vec<f64>, Vec<String>)> = Vec::new();
     for (x, why) in xs {
-        match out.last_mut() {
-            Some((x0, whys)) if (x - *x0).abs() <= 1e-6 * len => {
+        match clusters.last_mut() {
+            Some((pts, whys)) if x - pts[pts.len() - 1] <= near => {
+                pts.push(x);
                 if !whys.contains(&why) {
                     whys.push(why);
                 }
             }
-            _ => out.push((x, vec![why])),
+            _ => clusters.push((vec![x], vec![why])),
         }
     }
-    out
+    let middle = len / 2.0;
+    let from_end = |x: f64| x.min(len - x);
+    clusters
+        .into_iter()
+        .map(|(pts, whys)| {
+            let x = if pts.contains(&middle) {
+                middle
+            } else {
+                pts.iter().copied().min_by(|a, b| from_end(*a).total_cmp(&from_end(*b))).unwrap_or(pts[0])
+            };
+            (x, whys)
+        })
+        .collect()
 }

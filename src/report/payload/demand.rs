@@ -48,6 +48,9 @@ pub struct DemandShown {
     pub stations: Vec<StationShown>,
     /// How many stations are derived in full on location sheets, and how many are not.
     pub derived_count: usize,
+    /// How many stations mirror one derived in full (a symmetric member's right end
+    /// region).
+    pub mirror_count: usize,
     pub untraced_count: usize,
     pub diagram: Diagram,
 }
@@ -113,6 +116,9 @@ pub struct StationShown {
     /// The name of the location whose sheets derive this station in full.
     pub derived: Option<String>,
     pub role: Option<&'static str>,
+    /// The x of the station this one mirrors (a symmetric member's right end region):
+    /// its derivation is that station's.
+    pub mirror_of: Option<String>,
 }
 
 /// The capacity diagram: x along the member (0 to its length), moments upward.
@@ -230,7 +236,8 @@ pub fn demand(m: &MemberResult, d: &Demand, basis: &dyn Basis) -> DemandShown {
         clause: basis.cite(Clause::ReducedLiveFactor),
     });
     let stations: Vec<StationShown> = m.stations.iter().map(|s| station(s, m, &present)).collect();
-    let derived_count = m.stations.iter().filter(|s| s.derived.is_some()).count();
+    let mirror_count = m.stations.iter().filter(|s| s.mirror_of.is_some()).count();
+    let derived_count = m.stations.iter().filter(|s| s.derived.is_some()).count() - mirror_count;
     DemandShown {
         length: length(d.length),
         span: length(d.span),
@@ -254,8 +261,9 @@ pub fn demand(m: &MemberResult, d: &Demand, basis: &dyn Basis) -> DemandShown {
                 .collect();
             (!named.is_empty()).then(|| named.join(", "))
         },
-        untraced_count: stations.len() - derived_count,
+        untraced_count: stations.len() - derived_count - mirror_count,
         derived_count,
+        mirror_count,
         stations,
         diagram: diagram(m, d, sys),
     }
@@ -281,6 +289,7 @@ fn station(s: &StationRow, m: &MemberResult, present: &[usize]) -> StationShown 
         status_word: s.status.word(),
         derived: s.derived.and_then(|i| m.locations.get(i)).map(|l| l.name.clone()),
         role: s.role,
+        mirror_of: s.mirror_of.map(printed),
     }
 }
 
