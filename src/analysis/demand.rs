@@ -33,8 +33,8 @@ pub struct Demand {
     pub live_factor: f64,
     pub live_factor_reason: Option<String>,
     pub shored: bool,
-    /// The largest hogging (negative) factored moment, at the overhangs (0 without
-    /// overhangs): shown, not checked.
+    /// The size of the largest hogging (negative) factored moment, at the overhangs
+    /// (0 without overhangs): shown, not checked.
     pub hogging: f64,
 }
 

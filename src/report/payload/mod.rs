@@ -118,6 +118,12 @@ pub struct PackageShown {
     pub pass: bool,
     #[serde(with = "status_word")]
     pub status: Status,
+    /// Members whose demand is derived from their loads, and those with a location
+    /// whose Mu is given by hand (the cover's scope names both).
+    pub demand_derived: Vec<String>,
+    pub demand_given: Vec<String>,
+    /// Members with a hogging moment over an overhang (shown, not checked).
+    pub hogging: Vec<String>,
 }
 
 #[derive(Serialize, Deserialize, Clone)]
@@ -260,7 +266,13 @@ fn units_shown(sys: System) -> UnitsShown {
 }
 
 fn package_shown(meta: &Meta, a: &Analysis) -> PackageShown {
+    let ids = |f: &dyn Fn(&crate::analysis::MemberResult) -> bool| {
+        a.members.iter().filter(|m| f(m)).map(|m| m.id.clone()).collect::<Vec<_>>()
+    };
     PackageShown {
+        demand_derived: ids(&|m| m.demand.is_some()),
+        demand_given: ids(&|m| m.locations.iter().any(|l| l.demand_from_loads.is_none())),
+        hogging: ids(&|m| m.demand.as_ref().is_some_and(|d| d.hogging > 0.0)),
         title: meta.title.clone(),
         project: meta.project.clone(),
         project_number: meta.project_number.clone(),
