@@ -5,7 +5,7 @@
 
 use super::prepare::Prepared;
 use super::prestress::StrandAt;
-use super::solve::{Law, Model, State};
+use super::solve::{Model, State, SteelLaw};
 use super::{Approximate, Development, MinReinforcement, is_slab, sy, sym_k};
 use crate::basis::{Clause, Control};
 use crate::input::model::{End, StrandLayer};
@@ -283,7 +283,7 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
     let extreme = if is_strand { format!("strand layer {k}") } else { format!("bar layer {k}") };
     let eps_t = ext.eps3(st.c, model.ecu);
     let (eps_ty, eps_ty_note) = match ext.law {
-        Law::Strand(_) => (
+        SteelLaw::Strand(_) => (
             p.basis.strand_yield_strain(),
             format!(
                 "{} for prestressed reinforcement ({})",
@@ -291,7 +291,7 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
                 p.basis.clause(Clause::YieldStrainForClass)
             ),
         ),
-        Law::Bar(b) => (b.fy / b.es, "fy / Es of the bar".to_string()),
+        SteelLaw::Bar(b) => (b.fy / b.es, "fy / Es of the bar".to_string()),
     };
     tr.rec(|| {
         Step::new(
@@ -316,13 +316,13 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
         )
         .clause(p.basis.cite(Clause::YieldStrainForClass));
         match ext.law {
-            Law::Bar(b) => stp
+            SteelLaw::Bar(b) => stp
                 .formula(div(v(0), v(1)))
                 .input(sy("f_y", "fy"), b.fy, Unit::Stress)
                 .input(sy("E_s", "Es"), b.es, Unit::Stress)
                 .result(eps_ty, Unit::Strain)
                 .note(eps_ty_note.clone()),
-            Law::Strand(_) => stp.result(eps_ty, Unit::Strain).note(eps_ty_note.clone()),
+            SteelLaw::Strand(_) => stp.result(eps_ty, Unit::Strain).note(eps_ty_note.clone()),
         }
     });
     let (phi, class) = p.basis.phi(eps_t, eps_ty);

@@ -21,7 +21,7 @@ use super::station::Station;
 use crate::basis::Basis;
 use crate::error::{Error, Result};
 use crate::input::model::Member;
-use crate::material::concrete::{Curve as ConcreteCurve, Law};
+use crate::material::concrete::{ConcreteLaw, Curve as ConcreteCurve};
 use crate::material::steel::Bar;
 use crate::material::strand::Curve as StrandCurve;
 use crate::section::Region;
@@ -87,8 +87,8 @@ struct Fibres {
     /// Reference level: the centroid of the precast unit.
     yr: f64,
     precast: Strips,
-    law_p: Law,
-    topping: Option<(Strips, Law)>,
+    law_p: ConcreteLaw,
+    topping: Option<(Strips, ConcreteLaw)>,
     steel: Vec<Steel>,
     hardening: bool,
     y_top_p: f64,
@@ -268,13 +268,13 @@ fn build(p: &Prepared, loc: &Station, li: usize) -> Fibres {
     let at = strands_at(p, li, loc, &mut tr);
     let opts = m.curve;
     let c = &m.concrete;
-    let law_p = Law::new(c.curve, c.fc, c.ec, c.fr, sys);
+    let law_p = ConcreteLaw::new(c.curve, c.fc, c.ec, c.fr, sys);
     let precast = strips(&m.region, m.region.y_bot(), p.top_p, opts.strips);
     let topping = match (&m.topping, &p.topping_region) {
         (Some(t), Some(r)) => {
             let n = ((opts.strips as f64) * t.thickness / m.precast_height()).ceil().max(20.0) as usize;
             let tc = &t.concrete;
-            Some((strips(r, p.top_p, p.top, n), Law::new(tc.curve, tc.fc, tc.ec, tc.fr, sys)))
+            Some((strips(r, p.top_p, p.top, n), ConcreteLaw::new(tc.curve, tc.fc, tc.ec, tc.fr, sys)))
         }
         _ => None,
     };
