@@ -13,7 +13,8 @@ use crate::section::Region;
 use crate::trace::{Step, Symbol, Trace, Unit, f::*, show};
 use crate::units::System;
 
-fn tag(li: usize, k: &str) -> String {
+/// The id of a step of location li: `L{li+1}.{k}`.
+pub(super) fn tag(li: usize, k: &str) -> String {
     format!("L{}.{k}", li + 1)
 }
 
