@@ -436,11 +436,7 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("M_\"nc\"", "Mnc"), mnc, Unit::Moment)
                     .input(sy("S_b", "Sb"), sb, Unit::Modulus)
                     .result(mcr, Unit::Moment)
-                    .clause(format!(
-                        "{}, {} (PCI Design Handbook form for composite members)",
-                        p.basis.cite(Clause::MinimumStrength { slab: is_slab(p.m) }),
-                        p.basis.clause(Clause::CrackingMoment)
-                    ))
+                    .clause(format!("{} (PCI Design Handbook form for composite members)", mcr_clauses(p)))
                     .note(if cracked_first {
                         "Mnc: moment on the precast unit before the topping acts. Mnc exceeds Sb (fr + fpe): the precast unit cracks before the topping acts, and this formula does not apply"
                     } else {
@@ -458,15 +454,20 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("f_r", "fr"), fr, Unit::Stress)
                     .input(sy("f_\"pe\"", "fpe"), fpe, Unit::Stress)
                     .result(mcr, Unit::Moment)
-                    .clause(format!(
-                        "{}, {}",
-                        p.basis.cite(Clause::MinimumStrength { slab: is_slab(p.m) }),
-                        p.basis.clause(Clause::CrackingMoment)
-                    ))
+                    .clause(mcr_clauses(p))
             });
             (mcr, false)
         }
     }
+}
+
+/// The clauses the cracking moment's step cites: the minimum strength and Mcr.
+fn mcr_clauses(p: &Prepared) -> String {
+    format!(
+        "{}, {}",
+        p.basis.cite(Clause::MinimumStrength { slab: is_slab(p.m) }),
+        p.basis.clause(Clause::CrackingMoment)
+    )
 }
 
 /// The precompression at the bottom fibre of the precast unit from the prestress.
