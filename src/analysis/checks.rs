@@ -5,15 +5,23 @@
 
 use super::prepare::Prepared;
 use super::prestress::StrandAt;
-use super::solve::{Law, Model, State};
+use super::solve::{Model, State, Steel, SteelLaw};
 use super::{Approximate, Development, MinReinforcement, is_slab, sy, sym_k};
 use crate::basis::{Clause, Control};
 use crate::input::model::{End, StrandLayer};
-use crate::trace::{Step, Trace, Unit, f::*, show};
+use crate::section::Region;
+use crate::trace::{Step, Symbol, Trace, Unit, f::*, show};
 use crate::units::System;
 
-fn tag(li: usize, k: &str) -> String {
+/// The id of a step of location li: `L{li+1}.{k}`.
+pub(super) fn tag(li: usize, k: &str) -> String {
     format!("L{}.{k}", li + 1)
+}
+
+/// A step of strand layer k at location li: its id `L{li+1}.{id}.{k}`, its title
+/// "{title}, layer {k}".
+pub(super) fn layer_step(group: &str, li: usize, id: &str, k: usize, title: &str, symbol: Symbol) -> Step {
+    Step::new(group, tag(li, &format!("{id}.{k}")), format!("{title}, layer {k}"), symbol)
 }
 
 /// Transfer length and the effective prestress at a section `from_end` (the nearer end
@@ -33,41 +41,9 @@ pub(super) fn transfer(
     let (d1, _) = p.basis.development_divisors();
     let ltr = s.fse / d1 * s.diameter;
     let x_bond = xe - s.debonded_length;
-    tr.rec(|| {
-        Step::new(
-            "development",
-            tag(li, &format!("dev.ltr.{k}")),
-            format!("Transfer length, layer {k}"),
-            sym_k("ell", "\"tr\"", "ltr", k),
-        )
-        .formula(mul(vec![div(v(0), n(d1)), v(1)]))
-        .input(sym_k("f", "\"se\"", "fse", k), s.fse, Unit::Stress)
-        .input(s_db(), s.diameter, Unit::Length)
-        .result(ltr, Unit::Length)
-        .clause(p.basis.cite(Clause::TransferLength))
-        .note(match p.sys {
-            _ if s.fse == 0.0 => "untensioned strand: no prestress to transfer",
-            System::Us => "fse in ksi (fse/3000 with psi)",
-            System::Si => "fse in MPa",
-        })
-    });
+    tr.rec(|| transfer_length_step(p, li, k, s, d1, ltr));
     if s.debonded_length > 0.0 {
-        tr.rec(|| {
-            Step::new(
-                "development",
-                tag(li, &format!("dev.xb.{k}")),
-                format!("Bonded length to the section, layer {k}"),
-                sym_k("x", "b", "xb", k),
-            )
-            .formula(sub(v(0), v(1)))
-            .input(sy("x_e", "xe"), xe, Unit::Length)
-            .input(sym_k("ell", "\"db\"", "l_debond", k), s.debonded_length, Unit::Length)
-            .result(x_bond, Unit::Length)
-            .note(format!(
-                "distance from where the bond begins, debonded over ℓdb at each end; from the {}",
-                end.name()
-            ))
-        });
+        tr.rec(|| bonded_length_step(li, k, s, end, xe, x_bond));
     }
     // where the bond begins, within the rounding of x measured from the other end (a
     // section at length - x must find what the section at x finds)
@@ -99,7 +75,30 @@ pub(super) fn transfer(
     (fse_here, active, Some(dev))
 }
 
-fn s_db() -> crate::trace::Symbol {
+fn transfer_length_step(p: &Prepared, li: usize, k: usize, s: &StrandLayer, d1: f64, ltr: f64) -> Step {
+    layer_step("development", li, "dev.ltr", k, "Transfer length", sym_k("ell", "\"tr\"", "ltr", k))
+        .formula(mul(vec![div(v(0), n(d1)), v(1)]))
+        .input(sym_k("f", "\"se\"", "fse", k), s.fse, Unit::Stress)
+        .input(s_db(), s.diameter, Unit::Length)
+        .result(ltr, Unit::Length)
+        .clause(p.basis.cite(Clause::TransferLength))
+        .note(match p.sys {
+            _ if s.fse == 0.0 => "untensioned strand: no prestress to transfer",
+            System::Us => "fse in ksi (fse/3000 with psi)",
+            System::Si => "fse in MPa",
+        })
+}
+
+fn bonded_length_step(li: usize, k: usize, s: &StrandLayer, end: End, xe: f64, x_bond: f64) -> Step {
+    layer_step("development", li, "dev.xb", k, "Bonded length to the section", sym_k("x", "b", "xb", k))
+        .formula(sub(v(0), v(1)))
+        .input(sy("x_e", "xe"), xe, Unit::Length)
+        .input(sym_k("ell", "\"db\"", "l_debond", k), s.debonded_length, Unit::Length)
+        .result(x_bond, Unit::Length)
+        .note(format!("distance from where the bond begins, debonded over ℓdb at each end; from the {}", end.name()))
+}
+
+fn s_db() -> Symbol {
     sy("d_b", "db")
 }
 
@@ -123,51 +122,16 @@ pub(super) fn development(
     let factor = if dev.doubled { 2.0 } else { 1.0 };
     let ld = factor * (fse_full / d1 * s.diameter + (fps_d - fse_full) / d2 * s.diameter);
     dev.development_length = ld;
-    tr.rec(|| {
-        // (fps - fse) / 1 in ksi: no division shown
-        let rise = if d2 == 1.0 { sub(v(1), v(0)) } else { div(sub(v(1), v(0)), n(d2)) };
-        let core = add(vec![mul(vec![div(v(0), n(d1)), v(2)]), mul(vec![rise, v(2)])]);
-        let (formula, note) = if fps_d == 0.0 {
-            (core, "untensioned strand in compression here: its development does not limit it")
-        } else if factor == 2.0 {
-            (mul(vec![n(2.0), core]), "doubled for strand whose bonding does not reach the member end (25.4.8.1(b)), the conservative default; required where service tension is allowed in the precompressed zone; fps as solved at this location with the strand fully developed")
-        } else {
-            (core, "fps as solved at this location with the strand fully developed, so ℓd differs a little between locations")
-        };
-        Step::new("development", tag(li, &format!("dev.ld.{k}")), format!("Development length, layer {k}"), sym_k("ell", "d", "ld", k))
-            .formula(formula)
-            .input(sym_k("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
-            .input(sym_k("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
-            .input(s_db(), s.diameter, Unit::Length)
-            .result(ld, Unit::Length)
-            .clause(p.basis.cite(if factor == 2.0 { Clause::DevelopmentDoubled } else { Clause::DevelopmentLength }))
-            .note(note)
-    });
+    tr.rec(|| development_length_step(p, li, k, s, fps_d, factor, ld));
     if !at.active {
         return None;
     }
     let xb = dev.x_bond;
     let ltr = dev.transfer_length;
-    let end = dev.end;
     // within the rounding of x measured from the other end, as in `transfer`
     if xb >= ld - 1e-9 * p.m.length.unwrap_or(0.0) {
         dev.state = "fully developed";
-        tr.rec(|| {
-            Step::new(
-                "development",
-                tag(li, &format!("dev.full.{k}")),
-                format!("Bonded length against the development length, layer {k}"),
-                sym_k("x", "b", "xb", k),
-            )
-            .result(xb, Unit::Length)
-            .clause(p.basis.cite(Clause::StrandStressLimit))
-            .note(format!(
-                "bonded length from the {}, at least ℓd = {} {}: the strand is fully developed here and its stress is not limited",
-                dev.end.name(),
-                show(ld),
-                p.sys.names().length
-            ))
-        });
+        tr.rec(|| fully_developed_step(p, li, k, &*dev));
         return None;
     }
     let cap = if xb <= ltr {
@@ -177,35 +141,87 @@ pub(super) fn development(
     };
     dev.fpx = Some(cap);
     dev.state = if xb <= ltr { "within the transfer length" } else { "between the transfer and development lengths" };
-    tr.rec(|| {
-        let st = Step::new(
-            "development",
-            tag(li, &format!("dev.fpx.{k}")),
-            format!("Strand stress limit at the section, layer {k}"),
-            sym_k("f", "\"px\"", "fpx", k),
-        )
-        .clause(p.basis.cite(Clause::StrandStressLimit));
-        if xb <= ltr {
-            st.formula(div(mul(vec![v(0), v(1)]), v(2)))
-                .input(sym_k("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
-                .input(sym_k("x", "b", "xb", k), xb, Unit::Length)
-                .input(sym_k("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
-                .result(cap, Unit::Stress)
-                .note(format!("within the transfer length from the {}", end.name()))
-        } else {
-            st.formula(add(vec![v(0), mul(vec![div(sub(v(1), v(2)), sub(v(3), v(2))), sub(v(4), v(0))])]))
-                .input(sym_k("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
-                .input(sym_k("x", "b", "xb", k), xb, Unit::Length)
-                .input(sym_k("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
-                .input(sym_k("ell", "d", "ld", k), ld, Unit::Length)
-                .input(sym_k("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
-                .result(cap, Unit::Stress)
-                .note(format!("between the transfer and development lengths from the {}: linear", end.name()))
-        }
-    });
+    tr.rec(|| stress_limit_step(p, li, k, &*dev, fse_full, fps_d, cap));
     let ratio = if xb <= ltr { 0.0 } else { (xb - ltr) / (ld - ltr) };
     dev.ratio = Some(ratio);
     Some(cap)
+}
+
+/// The development length's step; `factor` 2 where it is doubled (25.4.8.1(b)).
+fn development_length_step(
+    p: &Prepared,
+    li: usize,
+    k: usize,
+    s: &StrandLayer,
+    fps_d: f64,
+    factor: f64,
+    ld: f64,
+) -> Step {
+    let (d1, d2) = p.basis.development_divisors();
+    let fse_full = s.fse;
+    // (fps - fse) / 1 in ksi: no division shown
+    let rise = if d2 == 1.0 { sub(v(1), v(0)) } else { div(sub(v(1), v(0)), n(d2)) };
+    let core = add(vec![mul(vec![div(v(0), n(d1)), v(2)]), mul(vec![rise, v(2)])]);
+    let (formula, note) = if fps_d == 0.0 {
+        (core, "untensioned strand in compression here: its development does not limit it")
+    } else if factor == 2.0 {
+        (
+            mul(vec![n(2.0), core]),
+            "doubled for strand whose bonding does not reach the member end (25.4.8.1(b)), the conservative default; required where service tension is allowed in the precompressed zone; fps as solved at this location with the strand fully developed",
+        )
+    } else {
+        (
+            core,
+            "fps as solved at this location with the strand fully developed, so ℓd differs a little between locations",
+        )
+    };
+    layer_step("development", li, "dev.ld", k, "Development length", sym_k("ell", "d", "ld", k))
+        .formula(formula)
+        .input(sym_k("f", "\"se\"", "fse", k), fse_full, Unit::Stress)
+        .input(sym_k("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
+        .input(s_db(), s.diameter, Unit::Length)
+        .result(ld, Unit::Length)
+        .clause(p.basis.cite(if factor == 2.0 { Clause::DevelopmentDoubled } else { Clause::DevelopmentLength }))
+        .note(note)
+}
+
+fn fully_developed_step(p: &Prepared, li: usize, k: usize, dev: &Development) -> Step {
+    let title = "Bonded length against the development length";
+    layer_step("development", li, "dev.full", k, title, sym_k("x", "b", "xb", k))
+        .result(dev.x_bond, Unit::Length)
+        .clause(p.basis.cite(Clause::StrandStressLimit))
+        .note(format!(
+            "bonded length from the {}, at least ℓd = {} {}: the strand is fully developed here and its stress is not limited",
+            dev.end.name(),
+            show(dev.development_length),
+            p.sys.names().length
+        ))
+}
+
+/// The stress limit fpx of a layer not fully developed: within the transfer length, or
+/// linear between the transfer and development lengths.
+fn stress_limit_step(p: &Prepared, li: usize, k: usize, dev: &Development, fse: f64, fps_d: f64, cap: f64) -> Step {
+    let (xb, ltr, ld, end) = (dev.x_bond, dev.transfer_length, dev.development_length, dev.end);
+    let title = "Strand stress limit at the section";
+    let st = layer_step("development", li, "dev.fpx", k, title, sym_k("f", "\"px\"", "fpx", k))
+        .clause(p.basis.cite(Clause::StrandStressLimit));
+    if xb <= ltr {
+        st.formula(div(mul(vec![v(0), v(1)]), v(2)))
+            .input(sym_k("f", "\"se\"", "fse", k), fse, Unit::Stress)
+            .input(sym_k("x", "b", "xb", k), xb, Unit::Length)
+            .input(sym_k("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
+            .result(cap, Unit::Stress)
+            .note(format!("within the transfer length from the {}", end.name()))
+    } else {
+        st.formula(add(vec![v(0), mul(vec![div(sub(v(1), v(2)), sub(v(3), v(2))), sub(v(4), v(0))])]))
+            .input(sym_k("f", "\"se\"", "fse", k), fse, Unit::Stress)
+            .input(sym_k("x", "b", "xb", k), xb, Unit::Length)
+            .input(sym_k("ell", "\"tr\"", "ltr", k), ltr, Unit::Length)
+            .input(sym_k("ell", "d", "ld", k), ld, Unit::Length)
+            .input(sym_k("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
+            .result(cap, Unit::Stress)
+            .note(format!("between the transfer and development lengths from the {}: linear", end.name()))
+    }
 }
 
 /// phi of ACI 318-19 21.2.3 for strand not fully developed at the section: 0.75 up to
@@ -233,13 +249,9 @@ pub(super) fn phi_development(
         dev.phi = Some(phi);
         let (xb, ltr, ld) = (dev.x_bond, dev.transfer_length, dev.development_length);
         tr.rec(|| {
-            let st = Step::new(
-                "checks",
-                tag(li, &format!("dev.phi.{k}")),
-                format!("Strength reduction factor, strand not fully developed, layer {k}"),
-                sym_k("phi", "\"dev\"", "phi_dev", k),
-            )
-            .clause(p.basis.cite(Clause::PhiDevelopment));
+            let title = "Strength reduction factor, strand not fully developed";
+            let st = layer_step("checks", li, "dev.phi", k, title, sym_k("phi", "\"dev\"", "phi_dev", k))
+                .clause(p.basis.cite(Clause::PhiDevelopment));
             if ratio == 0.0 {
                 st.result(phi, Unit::Ratio).note("from where the bond begins to the end of the transfer length")
             } else {
@@ -282,17 +294,6 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
     let k = if is_strand { j + 1 } else { j - ns + 1 };
     let extreme = if is_strand { format!("strand layer {k}") } else { format!("bar layer {k}") };
     let eps_t = ext.eps3(st.c, model.ecu);
-    let (eps_ty, eps_ty_note) = match ext.law {
-        Law::Strand(_) => (
-            p.basis.strand_yield_strain(),
-            format!(
-                "{} for prestressed reinforcement ({})",
-                crate::trace::const_text(p.basis.strand_yield_strain()),
-                p.basis.clause(Clause::YieldStrainForClass)
-            ),
-        ),
-        Law::Bar(b) => (b.fy / b.es, "fy / Es of the bar".to_string()),
-    };
     tr.rec(|| {
         Step::new(
             "checks",
@@ -307,6 +308,26 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
         .clause(p.basis.cite(Clause::NetTensileStrain))
         .note(format!("{extreme}; flexural strain only, excluding prestress and decompression strains"))
     });
+    let eps_ty = yield_strain(p, li, ext, tr);
+    let (phi, class) = p.basis.phi(eps_t, eps_ty);
+    tr.rec(|| phi_flexure_step(p, li, eps_t, eps_ty, phi, class));
+    Classification { eps_t, eps_ty, class: class.word(), phi, extreme }
+}
+
+/// The yield strain of the extreme tension steel for the control classification: the
+/// basis's value for strand, fy / Es for a bar.
+fn yield_strain(p: &Prepared, li: usize, ext: &Steel, tr: &mut Trace) -> f64 {
+    let (eps_ty, eps_ty_note) = match ext.law {
+        SteelLaw::Strand(_) => (
+            p.basis.strand_yield_strain(),
+            format!(
+                "{} for prestressed reinforcement ({})",
+                crate::trace::const_text(p.basis.strand_yield_strain()),
+                p.basis.clause(Clause::YieldStrainForClass)
+            ),
+        ),
+        SteelLaw::Bar(b) => (b.fy / b.es, "fy / Es of the bar".to_string()),
+    };
     tr.rec(|| {
         let stp = Step::new(
             "checks",
@@ -316,35 +337,33 @@ pub(super) fn control(p: &Prepared, li: usize, model: &Model, st: &State, tr: &m
         )
         .clause(p.basis.cite(Clause::YieldStrainForClass));
         match ext.law {
-            Law::Bar(b) => stp
+            SteelLaw::Bar(b) => stp
                 .formula(div(v(0), v(1)))
                 .input(sy("f_y", "fy"), b.fy, Unit::Stress)
                 .input(sy("E_s", "Es"), b.es, Unit::Stress)
                 .result(eps_ty, Unit::Strain)
                 .note(eps_ty_note.clone()),
-            Law::Strand(_) => stp.result(eps_ty, Unit::Strain).note(eps_ty_note.clone()),
+            SteelLaw::Strand(_) => stp.result(eps_ty, Unit::Strain).note(eps_ty_note.clone()),
         }
     });
-    let (phi, class) = p.basis.phi(eps_t, eps_ty);
-    tr.rec(|| {
-        let stp = Step::new("checks", tag(li, "phi_f"), "Strength reduction factor for flexure", sy("phi_f", "phi_f"))
-            .clause(p.basis.cite(Clause::PhiTable));
-        match class {
-            Control::Transition => stp
-                .formula(add(vec![n(0.65), mul(vec![n(0.25), div(sub(v(0), v(1)), n(0.003))])]))
-                .input(sy("epsilon_t", "eps_t"), eps_t, Unit::Strain)
-                .input(sy("epsilon_\"ty\"", "eps_ty"), eps_ty, Unit::Strain)
-                .result(phi, Unit::Ratio)
-                .note("transition zone: εty < εt < εty + 0.003"),
-            Control::Tension => stp.result(phi, Unit::Ratio).note("tension-controlled: εt ≥ εty + 0.003"),
-            _ => stp.result(phi, Unit::Ratio).note("compression-controlled: εt ≤ εty"),
-        }
-    });
-    Classification { eps_t, eps_ty, class: class.word(), phi, extreme }
+    eps_ty
 }
 
-/// Cracking moment (shown units), ACI 318-19 with the section moduli of the precast unit
-/// and, for a topped member, of the transformed composite section.
+fn phi_flexure_step(p: &Prepared, li: usize, eps_t: f64, eps_ty: f64, phi: f64, class: Control) -> Step {
+    let stp = Step::new("checks", tag(li, "phi_f"), "Strength reduction factor for flexure", sy("phi_f", "phi_f"))
+        .clause(p.basis.cite(Clause::PhiTable));
+    match class {
+        Control::Transition => stp
+            .formula(add(vec![n(0.65), mul(vec![n(0.25), div(sub(v(0), v(1)), n(0.003))])]))
+            .input(sy("epsilon_t", "eps_t"), eps_t, Unit::Strain)
+            .input(sy("epsilon_\"ty\"", "eps_ty"), eps_ty, Unit::Strain)
+            .result(phi, Unit::Ratio)
+            .note("transition zone: εty < εt < εty + 0.003"),
+        Control::Tension => stp.result(phi, Unit::Ratio).note("tension-controlled: εt ≥ εty + 0.003"),
+        _ => stp.result(phi, Unit::Ratio).note("compression-controlled: εt ≤ εty"),
+    }
+}
+
 /// The extreme fibre stresses of the precast unit under the effective prestress alone
 /// (no self-weight: the worst case for the top's tension and the bottom's compression),
 /// tension positive: the top against fr, the bottom's precompression against f'c. A
@@ -388,29 +407,14 @@ pub(super) fn prestress_alone(p: &Prepared, li: usize, pe: f64, e: f64, tr: &mut
     PrestressAlone { top, bottom, top_cracks: top > c.fr, over_compressed: -bottom > c.fc }
 }
 
-/// The cracking moment, and whether the precast unit cracks under the non-composite
-/// moment alone (before the topping acts).
+/// The cracking moment (shown units), ACI 318-19 with the section moduli of the precast
+/// unit and, for a topped member, of the transformed composite section; and whether the
+/// precast unit cracks under the non-composite moment alone (before the topping acts).
 pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &mut Trace) -> (f64, bool) {
     let cv = p.cv;
-    let pc = &p.precast;
-    let (area, sb) = (pc.area, pc.sb());
+    let sb = p.precast.sb();
     let fr = p.m.concrete.fr;
-    let pe_s = pe * cv.kf;
-    let fpe = pe / area + pe * e / sb;
-    tr.rec(|| {
-        Step::new(
-            "cracking",
-            tag(li, "fpe"),
-            "Precompression at the bottom fibre from prestress",
-            sy("f_\"pe\"", "fpe"),
-        )
-        .formula(add(vec![per(div(v(0), v(1)), cv.kf), per(div(mul(vec![v(0), v(2)]), v(3)), cv.kf)]))
-        .input(sy("P_e", "Pe"), pe_s, Unit::Force)
-        .input(sy("A", "A"), area, Unit::Area)
-        .input(sy("e", "e"), e, Unit::Length)
-        .input(sy("S_b", "Sb"), sb, Unit::Modulus)
-        .result(fpe, Unit::Stress)
-    });
+    let fpe = precompression(p, li, pe, e, tr);
     match (&p.composite, p.m.topping.as_ref()) {
         (Some(comp), Some(_)) => {
             let sbc = comp.sb();
@@ -432,11 +436,7 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("M_\"nc\"", "Mnc"), mnc, Unit::Moment)
                     .input(sy("S_b", "Sb"), sb, Unit::Modulus)
                     .result(mcr, Unit::Moment)
-                    .clause(format!(
-                        "{}, {} (PCI Design Handbook form for composite members)",
-                        p.basis.cite(Clause::MinimumStrength { slab: is_slab(p.m) }),
-                        p.basis.clause(Clause::CrackingMoment)
-                    ))
+                    .clause(format!("{} (PCI Design Handbook form for composite members)", mcr_clauses(p)))
                     .note(if cracked_first {
                         "Mnc: moment on the precast unit before the topping acts. Mnc exceeds Sb (fr + fpe): the precast unit cracks before the topping acts, and this formula does not apply"
                     } else {
@@ -454,15 +454,44 @@ pub(super) fn cracking(p: &Prepared, li: usize, pe: f64, e: f64, mnc: f64, tr: &
                     .input(sy("f_r", "fr"), fr, Unit::Stress)
                     .input(sy("f_\"pe\"", "fpe"), fpe, Unit::Stress)
                     .result(mcr, Unit::Moment)
-                    .clause(format!(
-                        "{}, {}",
-                        p.basis.cite(Clause::MinimumStrength { slab: is_slab(p.m) }),
-                        p.basis.clause(Clause::CrackingMoment)
-                    ))
+                    .clause(mcr_clauses(p))
             });
             (mcr, false)
         }
     }
+}
+
+/// The clauses the cracking moment's step cites: the minimum strength and Mcr.
+fn mcr_clauses(p: &Prepared) -> String {
+    format!(
+        "{}, {}",
+        p.basis.cite(Clause::MinimumStrength { slab: is_slab(p.m) }),
+        p.basis.clause(Clause::CrackingMoment)
+    )
+}
+
+/// The precompression at the bottom fibre of the precast unit from the prestress.
+fn precompression(p: &Prepared, li: usize, pe: f64, e: f64, tr: &mut Trace) -> f64 {
+    let cv = p.cv;
+    let pc = &p.precast;
+    let (area, sb) = (pc.area, pc.sb());
+    let pe_s = pe * cv.kf;
+    let fpe = pe / area + pe * e / sb;
+    tr.rec(|| {
+        Step::new(
+            "cracking",
+            tag(li, "fpe"),
+            "Precompression at the bottom fibre from prestress",
+            sy("f_\"pe\"", "fpe"),
+        )
+        .formula(add(vec![per(div(v(0), v(1)), cv.kf), per(div(mul(vec![v(0), v(2)]), v(3)), cv.kf)]))
+        .input(sy("P_e", "Pe"), pe_s, Unit::Force)
+        .input(sy("A", "A"), area, Unit::Area)
+        .input(sy("e", "e"), e, Unit::Length)
+        .input(sy("S_b", "Sb"), sb, Unit::Modulus)
+        .result(fpe, Unit::Stress)
+    });
+    fpe
 }
 
 pub(super) fn minimum(p: &Prepared, li: usize, mcr: f64, phi_mn: f64, mu: f64, tr: &mut Trace) -> MinReinforcement {
@@ -501,59 +530,7 @@ pub(super) fn approximate(
     mn_sc: f64,
     tr: &mut Trace,
 ) -> Approximate {
-    let m = p.m;
-    let cv = p.cv;
-    let na = |reason: String| Approximate {
-        applicable: false,
-        reason: Some(reason),
-        gamma_p: None,
-        rho_p: None,
-        fps: None,
-        a: None,
-        flanged: false,
-        mn: None,
-        difference: None,
-    };
-    let result = (|| {
-        if m.strands.is_empty() {
-            return Err("there is no prestressing steel".to_string());
-        }
-        if not_developed {
-            return Err("strand is not fully developed at this location".to_string());
-        }
-        // untensioned strand in the compression zone is not prestressing steel: it is
-        // left out like compression reinforcement (rho' = 0)
-        let counted: Vec<bool> = m.strands.iter().zip(at).map(|(s, a)| !(s.fse == 0.0 && a.d <= st.c)).collect();
-        for (i, ((s, a), keep)) in m.strands.iter().zip(at).zip(&counted).enumerate() {
-            if !keep {
-                continue;
-            }
-            if !a.active {
-                return Err(format!("strand layer {} is debonded here", i + 1));
-            }
-            if s.fse < p.basis.approximate_min_fse() * s.fpu {
-                return Err(format!(
-                    "fse of strand layer {} is below {} fpu ({})",
-                    i + 1,
-                    crate::trace::const_text(p.basis.approximate_min_fse()),
-                    p.basis.cite(Clause::ApproximateFps)
-                ));
-            }
-            if a.d <= st.c {
-                return Err(format!(
-                    "strand layer {} lies in the compression zone; the formula needs all prestressing steel in the tension zone",
-                    i + 1
-                ));
-            }
-        }
-        let mut grades = m.strands.iter().zip(&counted).filter(|(_, k)| **k).map(|(s, _)| s.fpu);
-        let fpu = grades.next().ok_or_else(|| "there is no tensioned strand".to_string())?;
-        if grades.any(|g| g != fpu) {
-            return Err("the strand layers are of different grades".to_string());
-        }
-        Ok((fpu, counted))
-    })();
-    let (fpu, counted) = match result {
+    let (fpu, counted) = match applicability(p, st, at, not_developed) {
         Ok(f) => f,
         Err(r) => {
             tr.rec(|| {
@@ -566,135 +543,285 @@ pub(super) fn approximate(
                 .result(f64::NAN, Unit::Stress)
                 .note(format!("not applicable: {r}"))
             });
-            return na(r);
+            return Approximate::not_applicable(r);
         }
     };
-    let layers: Vec<(&StrandLayer, &StrandAt)> =
-        m.strands.iter().zip(at).zip(&counted).filter(|(_, k)| **k).map(|(x, _)| x).collect();
-    let left_out = counted.iter().filter(|k| !**k).count();
-    let ratio = layers.iter().map(|(s, _)| s.fpy / s.fpu).fold(f64::INFINITY, f64::min);
-    // the condition of 20.3.2.3.1, shown with the result
-    let fse_ratio = layers.iter().map(|(s, _)| s.fse / s.fpu).fold(f64::INFINITY, f64::min);
-    let (gamma_p, gamma_bound) = p.basis.gamma_p(ratio);
-    let aps: f64 = layers.iter().map(|(s, _)| s.total_area()).sum();
-    let dp = layers.iter().map(|(s, a)| s.total_area() * a.d).sum::<f64>() / aps;
-    // tension bars: below mid-depth; compression bars are not counted (rho' = 0, always
-    // permitted and conservative)
-    let h = m.total_height();
-    let tb: Vec<_> = m.bars.iter().filter(|b| b.depth + p.t > h / 2.0).collect();
-    let as_: f64 = tb.iter().map(|b| b.total_area()).sum();
-    let d_s = if as_ > 0.0 { tb.iter().map(|b| b.total_area() * (b.depth + p.t)).sum::<f64>() / as_ } else { 0.0 };
-    let fy = tb.iter().map(|b| b.fy).fold(f64::INFINITY, f64::min);
-    let fy = if fy.is_finite() { fy } else { 0.0 };
-    let fc = p.fc_top;
-    let b1 = p.beta1;
-    let flange = m.shape.flange();
-    let (b, hf, bw) = match (&m.topping, flange) {
-        (Some(t), Some(f)) => (t.width, t.thickness + f.hf, Some(f.bw)),
-        (Some(t), None) => (t.width, t.thickness, None),
-        (None, Some(f)) => (f.b, f.hf, Some(f.bw)),
-        (None, None) => {
-            let top = m.region.y_top();
-            (m.region.width_at(top - 1e-9 * h), h, None)
-        }
+    let inp = ApproxInputs::new(p, at, &counted, fpu);
+    let full = inp.fps_at(inp.b, inp.aps);
+    tr.rec(|| fps_step(p, li, &inp, "approx.fps", "Approximate strand stress at nominal strength", full));
+    let block = Block::new(p, inp.fc, inp.h);
+    let deeper = || Approximate::not_applicable("the stress block would be deeper than the section".into());
+    let Some(a) = block.depth_for(inp.tension(full.fps)) else {
+        return deeper();
     };
-    let fps_of = |width: f64, aps_eff: f64| {
-        let rho_p = aps_eff / (width * dp);
-        let rho = if as_ > 0.0 { as_ / (width * d_s) } else { 0.0 };
-        let bracket = rho_p * fpu / fc + if as_ > 0.0 { d_s / dp * fy / fc * rho } else { 0.0 };
-        (fpu * (1.0 - gamma_p / b1 * bracket), rho_p, rho)
-    };
-    let (mut fps, rho_p, rho) = fps_of(b, aps);
-    let step_fps = |tr: &mut Trace, id: &str, title: &str, width: f64, apsw: f64, fps: f64, rho_p: f64, rho: f64| {
-        tr.rec(|| {
-            let mut stp = Step::new("approximate", tag(li, id), title.to_string(), sy("f_\"ps\"", "fps"))
-                .input(sy("f_\"pu\"", "fpu"), fpu, Unit::Stress)
-                .input(sy("gamma_p", "gamma_p"), gamma_p, Unit::Ratio)
-                .input(sy("beta_1", "beta1"), b1, Unit::Ratio)
-                .input(sy("rho_p", "rho_p"), rho_p, Unit::Ratio)
-                .input(sy("f'_c", "f'c"), fc, Unit::Stress)
-                .clause(p.basis.cite(Clause::ApproximateFps));
-            let mut bracket = vec![div(mul(vec![v(3), v(0)]), v(4))];
-            if as_ > 0.0 {
-                stp = stp.input(sy("d", "d"), d_s, Unit::Length).input(sy("d_p", "dp"), dp, Unit::Length).input(sy("f_y", "fy"), fy, Unit::Stress).input(sy("rho", "rho"), rho, Unit::Ratio);
-                bracket.push(mul(vec![div(v(5), v(6)), div(v(7), v(4)), v(8)]));
+    // a flanged section whose block is deeper than the flange: overhangs and web
+    let (fps, a, flanged) = match inp.bw {
+        Some(bw) if a > inp.hf && bw < inp.b => {
+            let web = web_portion(p, li, &inp, bw, full.fps, tr);
+            match block.depth_for(inp.tension(web.fps)) {
+                Some(a2) => (web.fps, a2, true),
+                None => return deeper(),
             }
-            let formula = mul(vec![v(0), sub(n(1.0), mul(vec![div(v(1), v(2)), if bracket.len() == 1 { bracket.remove(0) } else { add(bracket) }]))]);
-            stp.formula(formula).result(fps, Unit::Stress).note(format!(
-                "applies: fse ≥ {} fpu in every layer (least fse/fpu = {}); γp = {gamma_p} for fpy/fpu ≥ {gamma_bound}; ρp = Aps/(b dp) with b = {} and Aps = {}; compression steel not counted (ρ' = 0){}",
+        }
+        _ => (full.fps, a, false),
+    };
+    let (mn, diff) = nominal(p, li, &inp, &block, fps, a, mn_sc, tr);
+    Approximate {
+        applicable: true,
+        reason: None,
+        gamma_p: Some(inp.gamma_p),
+        rho_p: Some(full.rho_p),
+        fps: Some(fps),
+        a: Some(a),
+        flanged,
+        mn: Some(mn),
+        difference: Some(diff),
+    }
+}
+
+/// Whether the approximate fps applies here: the strand's fpu and which layers count
+/// (untensioned strand in the compression zone does not), or why it does not apply.
+fn applicability(p: &Prepared, st: &State, at: &[StrandAt], not_developed: bool) -> Result<(f64, Vec<bool>), String> {
+    let m = p.m;
+    if m.strands.is_empty() {
+        return Err("there is no prestressing steel".to_string());
+    }
+    if not_developed {
+        return Err("strand is not fully developed at this location".to_string());
+    }
+    // untensioned strand in the compression zone is not prestressing steel: it is
+    // left out like compression reinforcement (rho' = 0)
+    let counted: Vec<bool> = m.strands.iter().zip(at).map(|(s, a)| !(s.fse == 0.0 && a.d <= st.c)).collect();
+    for (i, ((s, a), keep)) in m.strands.iter().zip(at).zip(&counted).enumerate() {
+        if !keep {
+            continue;
+        }
+        if !a.active {
+            return Err(format!("strand layer {} is debonded here", i + 1));
+        }
+        if s.fse < p.basis.approximate_min_fse() * s.fpu {
+            return Err(format!(
+                "fse of strand layer {} is below {} fpu ({})",
+                i + 1,
                 crate::trace::const_text(p.basis.approximate_min_fse()),
-                show(fse_ratio),
-                show(width),
-                show(apsw),
-                if left_out > 0 { ", nor untensioned strand in the compression zone" } else { "" }
-            ))
-        });
-    };
-    step_fps(tr, "approx.fps", "Approximate strand stress at nominal strength", b, aps, fps, rho_p, rho);
-    // block depth from the outline, with the compression-face f'c
-    let parts: Vec<&crate::section::Region> = match &p.topping_region {
-        Some(t) => vec![t, &m.region],
-        None => vec![&m.region],
-    };
-    let area_above = |a: f64| parts.iter().map(|r| r.above(p.top - a).area).sum::<f64>();
-    let block_for = |t: f64| -> Option<f64> {
-        let need = t / (0.85 * fc);
-        let g = |a: f64| area_above(a) - need;
+                p.basis.cite(Clause::ApproximateFps)
+            ));
+        }
+        if a.d <= st.c {
+            return Err(format!(
+                "strand layer {} lies in the compression zone; the formula needs all prestressing steel in the tension zone",
+                i + 1
+            ));
+        }
+    }
+    let mut grades = m.strands.iter().zip(&counted).filter(|(_, k)| **k).map(|(s, _)| s.fpu);
+    let fpu = grades.next().ok_or_else(|| "there is no tensioned strand".to_string())?;
+    if grades.any(|g| g != fpu) {
+        return Err("the strand layers are of different grades".to_string());
+    }
+    Ok((fpu, counted))
+}
+
+/// What the approximate fps is computed from: the strand counted, the tension bars and
+/// the compression face.
+struct ApproxInputs {
+    fpu: f64,
+    gamma_p: f64,
+    gamma_bound: &'static str,
+    /// The least fse / fpu of the layers counted (the condition of 20.3.2.3.1).
+    fse_ratio: f64,
+    /// How many layers are left out (untensioned, in the compression zone).
+    left_out: usize,
+    aps: f64,
+    dp: f64,
+    /// Tension bars: their area, depth and least fy (all 0 without them).
+    as_: f64,
+    d_s: f64,
+    fy: f64,
+    /// f'c of the compression face, beta1 and the overall depth.
+    fc: f64,
+    b1: f64,
+    h: f64,
+    /// Width of the compression face, the flange's depth and the web's width (flanged).
+    b: f64,
+    hf: f64,
+    bw: Option<f64>,
+}
+
+/// fps at a width with the strand area counted over it, and the ratios it rests on.
+#[derive(Clone, Copy)]
+struct FpsAt {
+    width: f64,
+    aps: f64,
+    fps: f64,
+    rho_p: f64,
+    rho: f64,
+}
+
+impl ApproxInputs {
+    fn new(p: &Prepared, at: &[StrandAt], counted: &[bool], fpu: f64) -> ApproxInputs {
+        let m = p.m;
+        let layers: Vec<(&StrandLayer, &StrandAt)> =
+            m.strands.iter().zip(at).zip(counted).filter(|(_, k)| **k).map(|(x, _)| x).collect();
+        let left_out = counted.iter().filter(|k| !**k).count();
+        let ratio = layers.iter().map(|(s, _)| s.fpy / s.fpu).fold(f64::INFINITY, f64::min);
+        let fse_ratio = layers.iter().map(|(s, _)| s.fse / s.fpu).fold(f64::INFINITY, f64::min);
+        let (gamma_p, gamma_bound) = p.basis.gamma_p(ratio);
+        let aps: f64 = layers.iter().map(|(s, _)| s.total_area()).sum();
+        let dp = layers.iter().map(|(s, a)| s.total_area() * a.d).sum::<f64>() / aps;
+        // tension bars: below mid-depth; compression bars are not counted (rho' = 0, always
+        // permitted and conservative)
+        let h = m.total_height();
+        let tb: Vec<_> = m.bars.iter().filter(|b| b.depth + p.t > h / 2.0).collect();
+        let as_: f64 = tb.iter().map(|b| b.total_area()).sum();
+        let d_s = if as_ > 0.0 { tb.iter().map(|b| b.total_area() * (b.depth + p.t)).sum::<f64>() / as_ } else { 0.0 };
+        let fy = tb.iter().map(|b| b.fy).fold(f64::INFINITY, f64::min);
+        let fy = if fy.is_finite() { fy } else { 0.0 };
+        let (b, hf, bw) = match (&m.topping, m.shape.flange()) {
+            (Some(t), Some(f)) => (t.width, t.thickness + f.hf, Some(f.bw)),
+            (Some(t), None) => (t.width, t.thickness, None),
+            (None, Some(f)) => (f.b, f.hf, Some(f.bw)),
+            (None, None) => {
+                let top = m.region.y_top();
+                (m.region.width_at(top - 1e-9 * h), h, None)
+            }
+        };
+        let (fc, b1) = (p.fc_top, p.beta1);
+        ApproxInputs { fpu, gamma_p, gamma_bound, fse_ratio, left_out, aps, dp, as_, d_s, fy, fc, b1, h, b, hf, bw }
+    }
+
+    /// fps of 20.3.2.3.1 with rho_p = aps / (width dp).
+    fn fps_at(&self, width: f64, aps: f64) -> FpsAt {
+        let (fpu, fc) = (self.fpu, self.fc);
+        let rho_p = aps / (width * self.dp);
+        let rho = if self.as_ > 0.0 { self.as_ / (width * self.d_s) } else { 0.0 };
+        let bracket = rho_p * fpu / fc + if self.as_ > 0.0 { self.d_s / self.dp * self.fy / fc * rho } else { 0.0 };
+        FpsAt { width, aps, fps: fpu * (1.0 - self.gamma_p / self.b1 * bracket), rho_p, rho }
+    }
+
+    /// The tension the block balances: Aps fps + As fy.
+    fn tension(&self, fps: f64) -> f64 {
+        self.aps * fps + self.as_ * self.fy
+    }
+}
+
+fn fps_step(p: &Prepared, li: usize, inp: &ApproxInputs, id: &str, title: &str, at: FpsAt) -> Step {
+    let mut stp = Step::new("approximate", tag(li, id), title.to_string(), sy("f_\"ps\"", "fps"))
+        .input(sy("f_\"pu\"", "fpu"), inp.fpu, Unit::Stress)
+        .input(sy("gamma_p", "gamma_p"), inp.gamma_p, Unit::Ratio)
+        .input(sy("beta_1", "beta1"), inp.b1, Unit::Ratio)
+        .input(sy("rho_p", "rho_p"), at.rho_p, Unit::Ratio)
+        .input(sy("f'_c", "f'c"), inp.fc, Unit::Stress)
+        .clause(p.basis.cite(Clause::ApproximateFps));
+    let mut bracket = vec![div(mul(vec![v(3), v(0)]), v(4))];
+    if inp.as_ > 0.0 {
+        stp = stp
+            .input(sy("d", "d"), inp.d_s, Unit::Length)
+            .input(sy("d_p", "dp"), inp.dp, Unit::Length)
+            .input(sy("f_y", "fy"), inp.fy, Unit::Stress)
+            .input(sy("rho", "rho"), at.rho, Unit::Ratio);
+        bracket.push(mul(vec![div(v(5), v(6)), div(v(7), v(4)), v(8)]));
+    }
+    let bracket = if bracket.len() == 1 { bracket.remove(0) } else { add(bracket) };
+    let formula = mul(vec![v(0), sub(n(1.0), mul(vec![div(v(1), v(2)), bracket]))]);
+    stp.formula(formula).result(at.fps, Unit::Stress).note(format!(
+        "applies: fse ≥ {} fpu in every layer (least fse/fpu = {}); γp = {} for fpy/fpu ≥ {}; ρp = Aps/(b dp) with b = {} and Aps = {}; compression steel not counted (ρ' = 0){}",
+        crate::trace::const_text(p.basis.approximate_min_fse()),
+        show(inp.fse_ratio),
+        inp.gamma_p,
+        inp.gamma_bound,
+        show(at.width),
+        show(at.aps),
+        if inp.left_out > 0 { ", nor untensioned strand in the compression zone" } else { "" }
+    ))
+}
+
+/// The overhang-plus-web procedure (PCI Design Handbook) where the block is deeper than
+/// the flange: the strand area Apf balancing the overhangs, and fps of the web portion.
+fn web_portion(p: &Prepared, li: usize, inp: &ApproxInputs, bw: f64, fps: f64, tr: &mut Trace) -> FpsAt {
+    let (fc, b, hf) = (inp.fc, inp.b, inp.hf);
+    let apf = 0.85 * fc * (b - bw) * hf / fps;
+    let apw = (inp.aps - apf).max(0.0);
+    let web = inp.fps_at(bw, apw);
+    tr.rec(|| {
+        Step::new(
+            "approximate",
+            tag(li, "approx.Apf"),
+            "Strand area balancing the flange overhangs",
+            sy("A_\"pf\"", "Apf"),
+        )
+        .formula(div(mul(vec![n(0.85), v(0), sub(v(1), v(2)), v(3)]), v(4)))
+        .input(sy("f'_c", "f'c"), fc, Unit::Stress)
+        .input(sy("b", "b"), b, Unit::Length)
+        .input(sy("b_w", "bw"), bw, Unit::Length)
+        .input(sy("h_f", "hf"), hf, Unit::Length)
+        .input(sy("f_\"ps\"", "fps"), fps, Unit::Stress)
+        .result(apf, Unit::Area)
+        .note("the block is deeper than the flange: overhang-plus-web procedure (PCI Design Handbook)")
+    });
+    let title = "Approximate strand stress, web portion (ρp = Apw / (bw dp))";
+    tr.rec(|| fps_step(p, li, inp, "approx.fps_web", title, web));
+    web
+}
+
+/// The block of the approximate method, its depth from the section outline (topping
+/// and precast unit) with the compression-face f'c.
+struct Block<'a> {
+    parts: Vec<&'a Region>,
+    top: f64,
+    fc: f64,
+    h: f64,
+}
+
+impl<'a> Block<'a> {
+    fn new(p: &'a Prepared, fc: f64, h: f64) -> Block<'a> {
+        let parts: Vec<&Region> = match &p.topping_region {
+            Some(t) => vec![t, &p.m.region],
+            None => vec![&p.m.region],
+        };
+        Block { parts, top: p.top, fc, h }
+    }
+
+    fn area_above(&self, a: f64) -> f64 {
+        self.parts.iter().map(|r| r.above(self.top - a).area).sum::<f64>()
+    }
+
+    /// The block depth whose concrete, at 0.85 f'c, balances the tension t (none where
+    /// the whole section would not).
+    fn depth_for(&self, t: f64) -> Option<f64> {
+        let h = self.h;
+        let need = t / (0.85 * self.fc);
+        let g = |a: f64| self.area_above(a) - need;
         let (g0, gh) = (g(0.0), g(h));
         if gh < 0.0 {
             return None;
         }
         super::roots::brent(g, 0.0, h, g0, gh, 1e-13 * h, 1e-12 * need)
-    };
-    let t_total = |fps: f64| aps * fps + as_ * fy;
-    let Some(mut a) = block_for(t_total(fps)) else {
-        return na("the stress block would be deeper than the section".into());
-    };
-    let mut flanged = false;
-    if let Some(bw) = bw
-        && a > hf
-        && bw < b
-    {
-        flanged = true;
-        let apf = 0.85 * fc * (b - bw) * hf / fps;
-        let apw = (aps - apf).max(0.0);
-        let (fps2, rho_pw, rho_w) = fps_of(bw, apw);
-        tr.rec(|| {
-            Step::new(
-                "approximate",
-                tag(li, "approx.Apf"),
-                "Strand area balancing the flange overhangs",
-                sy("A_\"pf\"", "Apf"),
-            )
-            .formula(div(mul(vec![n(0.85), v(0), sub(v(1), v(2)), v(3)]), v(4)))
-            .input(sy("f'_c", "f'c"), fc, Unit::Stress)
-            .input(sy("b", "b"), b, Unit::Length)
-            .input(sy("b_w", "bw"), bw, Unit::Length)
-            .input(sy("h_f", "hf"), hf, Unit::Length)
-            .input(sy("f_\"ps\"", "fps"), fps, Unit::Stress)
-            .result(apf, Unit::Area)
-            .note("the block is deeper than the flange: overhang-plus-web procedure (PCI Design Handbook)")
-        });
-        fps = fps2;
-        step_fps(
-            tr,
-            "approx.fps_web",
-            "Approximate strand stress, web portion (ρp = Apw / (bw dp))",
-            bw,
-            apw,
-            fps,
-            rho_pw,
-            rho_w,
-        );
-        match block_for(t_total(fps)) {
-            Some(a2) => a = a2,
-            None => return na("the stress block would be deeper than the section".into()),
-        }
     }
-    let ab = area_above(a);
-    let q: f64 = parts.iter().map(|r| r.above(p.top - a).qx).sum();
-    let dc = p.top - q / ab;
-    let mn = (aps * fps * (dp - dc) + as_ * fy * (d_s - dc)) * cv.km;
+
+    /// Depth of the centroid of the concrete within a block of depth a.
+    fn centroid_depth(&self, a: f64) -> f64 {
+        let ab = self.area_above(a);
+        let q: f64 = self.parts.iter().map(|r| r.above(self.top - a).qx).sum();
+        self.top - q / ab
+    }
+}
+
+/// Mn with the approximate fps and its difference (per cent) from strain compatibility's.
+#[allow(clippy::too_many_arguments)]
+fn nominal(
+    p: &Prepared,
+    li: usize,
+    inp: &ApproxInputs,
+    block: &Block,
+    fps: f64,
+    a: f64,
+    mn_sc: f64,
+    tr: &mut Trace,
+) -> (f64, f64) {
+    let (aps, dp, as_, fy, d_s) = (inp.aps, inp.dp, inp.as_, inp.fy, inp.d_s);
+    let dc = block.centroid_depth(a);
+    let mn = (aps * fps * (dp - dc) + as_ * fy * (d_s - dc)) * p.cv.km;
     let diff = (mn - mn_sc) / mn_sc * 100.0;
     tr.rec(|| {
         Step::new("approximate", tag(li, "approx.a"), "Block depth with the approximate fps", sy("a", "a"))
@@ -721,7 +848,7 @@ pub(super) fn approximate(
             );
             terms.push(mul(vec![v(4), v(5), sub(v(6), v(3))]));
         }
-        stp.formula(per(add(terms), cv.s_div)).result(mn, Unit::Moment)
+        stp.formula(per(add(terms), p.cv.s_div)).result(mn, Unit::Moment)
     });
     tr.rec(|| {
         Step::new("approximate", tag(li, "approx.diff"), "Difference from strain compatibility", sy("Delta", "diff"))
@@ -730,15 +857,5 @@ pub(super) fn approximate(
             .input(sy("M_n", "Mn"), mn_sc, Unit::Moment)
             .result(diff, Unit::Percent)
     });
-    Approximate {
-        applicable: true,
-        reason: None,
-        gamma_p: Some(gamma_p),
-        rho_p: Some(rho_p),
-        fps: Some(fps),
-        a: Some(a),
-        flanged,
-        mn: Some(mn),
-        difference: Some(diff),
-    }
+    (mn, diff)
 }

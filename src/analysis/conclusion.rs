@@ -5,7 +5,7 @@
 use super::LocationResult;
 use super::curve::CurveResult;
 use crate::trace::show;
-use crate::units::System;
+use crate::units::{System, UnitNames};
 use serde::Serialize;
 
 /// ASTM A416: the minimum elongation of seven-wire strand at rupture (common practice
@@ -99,97 +99,23 @@ pub enum RuptureCheck<'a> {
 
 /// Settles a location's conditions, status and conclusion from its results.
 pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck) {
-    let u = sys.names();
-    let mut conditions = Vec::new();
     // a conclusion is never written over a number that is not one
-    let numbers = [l.mu, l.mn, l.phi_mn, l.mcr, l.min_reinforcement.required];
-    if let Some(bad) = numbers.iter().position(|v| !v.is_finite()) {
-        let names = ["Mu", "Mn", "φMn", "Mcr", "1.2 Mcr"];
+    if let Some(conclusion) = not_finite(l) {
         l.status = Status::Fail;
         l.pass = false;
         l.conditions = Vec::new();
-        l.conclusion = format!(
-            "No conclusion at {}: {} could not be computed as a finite number from this input. Check the input's magnitudes.",
-            l.name, names[bad]
-        );
+        l.conclusion = conclusion;
         return;
     }
+    let u = sys.names();
+    let mut conditions = Vec::new();
     let min_ok = l.min_reinforcement.ok || l.min_reinforcement.waiver_flexure;
     let pass = l.strength_ok && min_ok;
     if pass && !l.min_reinforcement.ok && l.min_reinforcement.waiver_flexure {
-        conditions.push(Condition {
-            kind: ConditionKind::MinimumWaived,
-            short: format!(
-                "shear strength at least twice that required, on which the waiver of the minimum strength ({}) rests: not checked here",
-                l.min_reinforcement.waiver_clause
-            ),
-            text: format!(
-                "φMn = {} is less than 1.2 Mcr = {} {}; the minimum-strength requirement ({}) is waived by {} because φMn ≥ 2 Mu, on the condition that the shear strength is also at least twice that required. Shear is not checked in this package: show it elsewhere.",
-                show(l.phi_mn),
-                show(l.min_reinforcement.required),
-                u.moment,
-                l.min_reinforcement.clause,
-                l.min_reinforcement.waiver_clause
-            ),
-        });
+        conditions.push(minimum_waived(l, &u));
     }
     if l.rupture_risk {
-        let strain = format!(
-            "The total strand strain at nominal strength, {} %, exceeds the {} % minimum elongation of ASTM A416",
-            show(l.max_strand_strain * 100.0),
-            show(STRAND_ELONGATION * 100.0)
-        );
-        match rupture {
-            RuptureCheck::Curve(c) if c.ended_by == "concrete crushing" => l.notes.push(format!(
-                "{strain}, but the moment-curvature analysis of this section (fibres, {}) ends by concrete crushing at M = {} {} with the extreme strand strain at {} %: the strand does not reach its rupture strain first.",
-                c.concrete_model,
-                show(c.ultimate.moment),
-                u.moment,
-                show(c.points.last().map_or(0.0, |p| p.strand_strain) * 100.0),
-            )),
-            RuptureCheck::Curve(c) if c.ended_by == "strand rupture" && l.phi * c.ultimate.moment >= l.mu => {
-                l.notes.push(format!(
-                    "{strain}. The moment-curvature analysis of this section reaches strand rupture at a moment of {} {}; φ times that, {} {}, is at least Mu = {} {}: the demand is carried before the strand ruptures.{}",
-                    show(c.ultimate.moment),
-                    u.moment,
-                    show(l.phi * c.ultimate.moment),
-                    u.moment,
-                    show(l.mu),
-                    u.moment,
-                    if c.ultimate.moment < l.mn {
-                        format!(" The stress-block Mn = {} {} is not reached before rupture; the demand is met by the lower moment.", show(l.mn), u.moment)
-                    } else {
-                        String::new()
-                    }
-                ))
-            }
-            RuptureCheck::Curve(c) => conditions.push(Condition {
-                kind: ConditionKind::StrandRupture,
-                short: rupture_short(l),
-                text: format!(
-                    "{strain}, and the moment-curvature analysis of this section ends by {} at a moment of {} {} (φ times that: {} {}, against Mu = {} {}): the strand may rupture before the section reaches its strength. Review the strand's elongation capacity.",
-                    c.ended_by,
-                    show(c.ultimate.moment),
-                    u.moment,
-                    show(l.phi * c.ultimate.moment),
-                    u.moment,
-                    show(l.mu),
-                    u.moment
-                ),
-            }),
-            RuptureCheck::Failed(why) => conditions.push(Condition {
-                kind: ConditionKind::StrandRupture,
-                short: rupture_short(l),
-                text: format!(
-                    "{strain}, so the strand may rupture before the concrete reaches its crushing strain; the moment-curvature analysis that could settle it failed ({why}). Review the strand's elongation capacity."
-                ),
-            }),
-            RuptureCheck::NotAsked => conditions.push(Condition {
-                kind: ConditionKind::StrandRupture,
-                short: rupture_short(l),
-                text: format!("{strain}, so the strand may rupture before the concrete reaches its crushing strain. Review the strand's elongation capacity."),
-            }),
-        }
+        strand_rupture(l, &u, rupture, &mut conditions);
     }
     if l.capped_strain > STRAND_ELONGATION {
         l.notes.push(format!(
@@ -198,37 +124,142 @@ pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck) {
             show(STRAND_ELONGATION * 100.0)
         ));
     }
-    if l.prestress_alone.top_cracks {
+    conditions.extend(unchecked_stresses(l, &u));
+    l.status = if !pass {
+        Status::Fail
+    } else if conditions.is_empty() {
+        Status::Pass
+    } else {
+        Status::Conditional
+    };
+    l.pass = pass;
+    l.conditions = conditions;
+    l.conclusion = sentence(l, sys, pass);
+}
+
+/// The conclusion of a location where a number it rests on is not finite, if any is not.
+fn not_finite(l: &LocationResult) -> Option<String> {
+    let numbers = [l.mu, l.mn, l.phi_mn, l.mcr, l.min_reinforcement.required];
+    let bad = numbers.iter().position(|v| !v.is_finite())?;
+    let names = ["Mu", "Mn", "φMn", "Mcr", "1.2 Mcr"];
+    Some(format!(
+        "No conclusion at {}: {} could not be computed as a finite number from this input. Check the input's magnitudes.",
+        l.name, names[bad]
+    ))
+}
+
+/// The minimum strength waived on the condition of a shear strength not checked here.
+fn minimum_waived(l: &LocationResult, u: &UnitNames) -> Condition {
+    Condition {
+        kind: ConditionKind::MinimumWaived,
+        short: format!(
+            "shear strength at least twice that required, on which the waiver of the minimum strength ({}) rests: not checked here",
+            l.min_reinforcement.waiver_clause
+        ),
+        text: format!(
+            "φMn = {} is less than 1.2 Mcr = {} {}; the minimum-strength requirement ({}) is waived by {} because φMn ≥ 2 Mu, on the condition that the shear strength is also at least twice that required. Shear is not checked in this package: show it elsewhere.",
+            show(l.phi_mn),
+            show(l.min_reinforcement.required),
+            u.moment,
+            l.min_reinforcement.clause,
+            l.min_reinforcement.waiver_clause
+        ),
+    }
+}
+
+/// A strand strain beyond the minimum elongation: a note where the section's
+/// moment-curvature analysis settles it, else an open condition.
+fn strand_rupture(l: &mut LocationResult, u: &UnitNames, rupture: RuptureCheck, conditions: &mut Vec<Condition>) {
+    let strain = format!(
+        "The total strand strain at nominal strength, {} %, exceeds the {} % minimum elongation of ASTM A416",
+        show(l.max_strand_strain * 100.0),
+        show(STRAND_ELONGATION * 100.0)
+    );
+    let text = match rupture {
+        RuptureCheck::Curve(c) if c.ended_by == "concrete crushing" => {
+            l.notes.push(format!(
+                "{strain}, but the moment-curvature analysis of this section (fibres, {}) ends by concrete crushing at M = {} {} with the extreme strand strain at {} %: the strand does not reach its rupture strain first.",
+                c.concrete_model,
+                show(c.ultimate.moment),
+                u.moment,
+                show(c.points.last().map_or(0.0, |p| p.strand_strain) * 100.0),
+            ));
+            return;
+        }
+        RuptureCheck::Curve(c) if c.ended_by == "strand rupture" && l.phi * c.ultimate.moment >= l.mu => {
+            l.notes.push(format!(
+                "{strain}. The moment-curvature analysis of this section reaches strand rupture at a moment of {} {}; φ times that, {} {}, is at least Mu = {} {}: the demand is carried before the strand ruptures.{}",
+                show(c.ultimate.moment),
+                u.moment,
+                show(l.phi * c.ultimate.moment),
+                u.moment,
+                show(l.mu),
+                u.moment,
+                if c.ultimate.moment < l.mn {
+                    format!(" The stress-block Mn = {} {} is not reached before rupture; the demand is met by the lower moment.", show(l.mn), u.moment)
+                } else {
+                    String::new()
+                }
+            ));
+            return;
+        }
+        RuptureCheck::Curve(c) => format!(
+            "{strain}, and the moment-curvature analysis of this section ends by {} at a moment of {} {} (φ times that: {} {}, against Mu = {} {}): the strand may rupture before the section reaches its strength. Review the strand's elongation capacity.",
+            c.ended_by,
+            show(c.ultimate.moment),
+            u.moment,
+            show(l.phi * c.ultimate.moment),
+            u.moment,
+            show(l.mu),
+            u.moment
+        ),
+        RuptureCheck::Failed(why) => format!(
+            "{strain}, so the strand may rupture before the concrete reaches its crushing strain; the moment-curvature analysis that could settle it failed ({why}). Review the strand's elongation capacity."
+        ),
+        RuptureCheck::NotAsked => format!(
+            "{strain}, so the strand may rupture before the concrete reaches its crushing strain. Review the strand's elongation capacity."
+        ),
+    };
+    conditions.push(Condition { kind: ConditionKind::StrandRupture, short: rupture_short(l), text });
+}
+
+/// The open conditions of stresses this package does not check: the top fibre cracking
+/// or the precompression beyond f'c under the prestress alone, and the precast unit
+/// cracking before the topping acts.
+fn unchecked_stresses(l: &LocationResult, u: &UnitNames) -> Vec<Condition> {
+    let alone = &l.prestress_alone;
+    let mut conditions = Vec::new();
+    if alone.top_cracks {
         conditions.push(Condition {
             kind: ConditionKind::TopCracksUnderPrestress,
             short: format!(
                 "top fibre cracks under the prestress alone ({} > fr = {} {}): release and service stresses to be checked",
-                show(l.prestress_alone.top),
-                show(l.prestress_alone.fr),
+                show(alone.top),
+                show(alone.fr),
                 u.stress
             ),
             text: format!(
                 "Under the effective prestress alone the top fibre of the precast unit is in tension, {} {}, beyond fr = {} {}: it cracks before any load acts (at release, with the higher stress then, more so). The stresses at release and in service are not checked in this package: check them, and provide top reinforcement or change the strand pattern.",
-                show(l.prestress_alone.top),
+                show(alone.top),
                 u.stress,
-                show(l.prestress_alone.fr),
+                show(alone.fr),
                 u.stress
             ),
         });
     }
-    if l.prestress_alone.over_compressed {
+    if alone.over_compressed {
         conditions.push(Condition {
             kind: ConditionKind::Overcompressed,
             short: format!(
                 "precompression {} {} beyond f'c under the prestress alone: release and service stresses to be checked",
-                show(-l.prestress_alone.bottom),
+                show(-alone.bottom),
                 u.stress
             ),
             text: format!(
                 "Under the effective prestress alone the bottom fibre's precompression, {} {}, exceeds f'c = {} {}. The stresses at release and in service are not checked in this package: check them.",
-                show(-l.prestress_alone.bottom),
+                show(-alone.bottom),
                 u.stress,
-                show(l.prestress_alone.fc),
+                show(alone.fc),
                 u.stress
             ),
         });
@@ -244,16 +275,7 @@ pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck) {
             ),
         });
     }
-    l.status = if !pass {
-        Status::Fail
-    } else if conditions.is_empty() {
-        Status::Pass
-    } else {
-        Status::Conditional
-    };
-    l.pass = pass;
-    l.conditions = conditions;
-    l.conclusion = sentence(l, sys, pass);
+    conditions
 }
 
 fn rupture_short(l: &LocationResult) -> String {

@@ -21,7 +21,7 @@ use super::station::Station;
 use crate::basis::Basis;
 use crate::error::{Error, Result};
 use crate::input::model::Member;
-use crate::material::concrete::{Curve as ConcreteCurve, Law};
+use crate::material::concrete::{ConcreteLaw, Curve as ConcreteCurve};
 use crate::material::steel::Bar;
 use crate::material::strand::Curve as StrandCurve;
 use crate::section::Region;
@@ -110,8 +110,8 @@ struct Fibres<'a> {
     /// Reference level: the centroid of the precast unit.
     yr: f64,
     precast: &'a Strips,
-    law_p: Law,
-    topping: Option<(&'a Strips, Law)>,
+    law_p: ConcreteLaw,
+    topping: Option<(&'a Strips, ConcreteLaw)>,
     steel: Vec<Steel>,
     hardening: bool,
     y_top_p: f64,
@@ -291,12 +291,12 @@ fn build<'a>(p: &Prepared, layers: &'a Layers, loc: &Station, li: usize) -> Fibr
     let at = strands_at(p, li, loc, &mut tr);
     let opts = m.curve;
     let c = &m.concrete;
-    let law_p = Law::new(c.curve, c.fc, c.ec, c.fr, sys);
+    let law_p = ConcreteLaw::new(c.curve, c.fc, c.ec, c.fr, sys);
     let precast = &layers.precast;
     let topping = match (&m.topping, &layers.topping) {
         (Some(t), Some(st)) => {
             let tc = &t.concrete;
-            Some((st, Law::new(tc.curve, tc.fc, tc.ec, tc.fr, sys)))
+            Some((st, ConcreteLaw::new(tc.curve, tc.fc, tc.ec, tc.fr, sys)))
         }
         _ => None,
     };

@@ -3,10 +3,12 @@
 //! debonding), the effective prestress, Pe, its eccentricity, and the strains eps1
 //! and eps2 that strain compatibility starts from.
 
+use super::checks::{self, layer_step, tag};
 use super::prepare::Prepared;
 use super::station::Station;
-use super::{Development, checks, sy, sym_k};
+use super::{Development, sy, sym_k};
 use crate::basis::Clause;
+use crate::input::model::{FseSource, StrandLayer};
 use crate::trace::{Step, Trace, Unit, f::*};
 
 /// Per strand layer, the state at a location before the solution.
@@ -129,9 +131,6 @@ pub(super) struct Prestress {
 /// The prestress at a location, every step recorded.
 pub(super) fn at_location(p: &Prepared, li: usize, loc: &Station, tr: &mut Trace) -> Prestress {
     let m = p.m;
-    let cv = p.cv;
-    let tag = |k: &str| format!("L{}.{k}", li + 1);
-    let eps_mod: Vec<f64> = p.curves.iter().map(|c| c.eps_modulus).collect();
     let mut at = strands_at(p, li, loc, tr);
     let pe: f64 = m.strands.iter().zip(&at).map(|(s, a)| a.fse * s.total_area()).sum();
     let e = if pe > 0.0 {
@@ -143,163 +142,132 @@ pub(super) fn at_location(p: &Prepared, li: usize, loc: &Station, tr: &mut Trace
     for a in at.iter_mut() {
         a.eps2 = pe / (area * ec) + pe * e * a.yb / (inertia * ec);
     }
-    // prestress steps
-    for (i, s) in m.strands.iter().enumerate() {
-        let a = &at[i];
-        let k = i + 1;
-        if let crate::input::model::FseSource::Losses { jacking, fpj, .. } = s.fse_source {
-            tr.rec(|| {
-                Step::new(
-                    "prestress",
-                    tag(&format!("prestress.fpj.{k}")),
-                    format!("Jacking stress, layer {k}"),
-                    sym_k("f", "\"pj\"", "fpj", k),
-                )
+    for (i, (s, a)) in m.strands.iter().zip(&at).enumerate() {
+        record_layer(p, li, i, s, a, tr);
+    }
+    tr.rec(|| force_step(p, li, &at, pe));
+    tr.rec(|| eccentricity_step(p, li, &at, pe, e));
+    for (i, a) in at.iter().enumerate() {
+        tr.rec(|| decompression_step(p, li, i + 1, a, pe, e));
+    }
+
+    Prestress { at, pe, e }
+}
+
+/// A layer's prestress steps: the jacking stress (where losses are given), fse, fse at
+/// x where less is transferred there, and eps1.
+fn record_layer(p: &Prepared, li: usize, i: usize, s: &StrandLayer, a: &StrandAt, tr: &mut Trace) {
+    let k = i + 1;
+    if let FseSource::Losses { jacking, fpj, .. } = s.fse_source {
+        tr.rec(|| {
+            layer_step("prestress", li, "prestress.fpj", k, "Jacking stress", sym_k("f", "\"pj\"", "fpj", k))
                 .formula(mul(vec![v(0), v(1)]))
                 .input(sy("f_\"pj\" / f_\"pu\"", "fpj/fpu"), jacking, Unit::Ratio)
                 .input(sy("f_\"pu\"", "fpu"), s.fpu, Unit::Stress)
                 .result(fpj, Unit::Stress)
-                .clause(format!(
-                    "{} (limit {})",
-                    p.basis.cite(Clause::JackingLimit),
-                    p.basis.jacking_limit_text()
-                ))
-            });
-        }
-        tr.rec(|| {
-            let mut st = Step::new(
-                "prestress",
-                tag(&format!("prestress.fse.{k}")),
-                format!("Effective prestress, layer {k}"),
-                sym_k("f", "\"se\"", "fse", k),
-            );
-            st = match s.fse_source {
-                crate::input::model::FseSource::Given => st.result(s.fse, Unit::Stress).note("given in the input"),
-                crate::input::model::FseSource::Losses { fpj, losses, .. } => st
-                    .formula(sub(v(0), v(1)))
-                    .input(sym_k("f", "\"pj\"", "fpj", k), fpj, Unit::Stress)
-                    .input(sym_k("Delta f", "p", "Δfp", k), losses, Unit::Stress)
-                    .result(s.fse, Unit::Stress)
-                    .note("jacking stress less the given losses"),
-            };
-            st
+                .clause(format!("{} (limit {})", p.basis.cite(Clause::JackingLimit), p.basis.jacking_limit_text()))
         });
-        if a.fse != s.fse {
-            let fse_here = a.fse;
-            let dev = a.dev.clone();
-            tr.rec(|| {
-                let mut st = Step::new(
-                    "prestress",
-                    tag(&format!("prestress.fsex.{k}")),
-                    format!("Effective prestress at x, layer {k}"),
-                    sym_k("f", "\"se,x\"", "fse,x", k),
-                );
-                match &dev {
-                    Some(d) if d.x_bond > 0.0 => {
-                        st = st
-                            .formula(div(mul(vec![v(0), v(1)]), v(2)))
-                            .input(sym_k("f", "\"se\"", "fse", k), s.fse, Unit::Stress)
-                            .input(sy("x_b", "xb"), d.x_bond, Unit::Length)
-                            .input(sy("ell_\"tr\"", "ltr"), d.transfer_length, Unit::Length)
-                            .result(fse_here, Unit::Stress)
-                            .note(
-                                "inside the transfer length: prestress transferred in proportion to the bonded length",
-                            )
-                    }
-                    _ if s.debonded_length > 0.0 => {
-                        st = st.result(fse_here, Unit::Stress).note("debonded here: no prestress")
-                    }
-                    _ => {
-                        st = st
-                            .result(fse_here, Unit::Stress)
-                            .note("at the member end: the bond has not begun, no prestress")
-                    }
-                }
-                st
-            });
+    }
+    tr.rec(|| {
+        let st = layer_step("prestress", li, "prestress.fse", k, "Effective prestress", sym_k("f", "\"se\"", "fse", k));
+        match s.fse_source {
+            FseSource::Given => st.result(s.fse, Unit::Stress).note("given in the input"),
+            FseSource::Losses { fpj, losses, .. } => st
+                .formula(sub(v(0), v(1)))
+                .input(sym_k("f", "\"pj\"", "fpj", k), fpj, Unit::Stress)
+                .input(sym_k("Delta f", "p", "Δfp", k), losses, Unit::Stress)
+                .result(s.fse, Unit::Stress)
+                .note("jacking stress less the given losses"),
         }
-        let reduced = a.fse != s.fse;
-        tr.rec(|| {
-            Step::new(
-                "prestress",
-                tag(&format!("prestress.eps1.{k}")),
-                format!("Strain from effective prestress, layer {k}"),
-                sym_k("epsilon", "1", "eps1", k),
-            )
+    });
+    let reduced = a.fse != s.fse;
+    if reduced {
+        tr.rec(|| fse_at_x_step(li, k, s, a));
+    }
+    tr.rec(|| {
+        let title = "Strain from effective prestress";
+        layer_step("prestress", li, "prestress.eps1", k, title, sym_k("epsilon", "1", "eps1", k))
             .formula(div(v(0), v(1)))
             .input(
                 if reduced { sym_k("f", "\"se,x\"", "fse,x", k) } else { sym_k("f", "\"se\"", "fse", k) },
                 a.fse,
                 Unit::Stress,
             )
-            .input(sy("E_\"ps\"", "Eps"), eps_mod[i], Unit::Stress)
+            .input(sy("E_\"ps\"", "Eps"), p.curves[i].eps_modulus, Unit::Stress)
             .result(a.eps1, Unit::Strain)
             .note("Eps is the initial slope of the strand curve")
-        });
-    }
-    tr.rec(|| {
-        let mut st = Step::new("prestress", tag("prestress.Pe"), "Effective prestress force", sy("P_e", "Pe"));
-        let mut terms = Vec::new();
-        for (i, s) in m.strands.iter().enumerate() {
-            terms.push(mul(vec![v(2 * i), v(2 * i + 1)]));
-            st = st.input(sym_k("f", "\"se\"", "fse", i + 1), at[i].fse, Unit::Stress).input(
-                sym_k("A", "\"ps\"", "Aps", i + 1),
-                s.total_area(),
-                Unit::Area,
-            );
-        }
-        st.formula(per(add(terms), cv.f_div)).result(pe * cv.kf, Unit::Force)
     });
-    tr.rec(|| {
-        let mut st = Step::new(
-            "prestress",
-            tag("prestress.e"),
-            "Eccentricity of the prestress below the precast centroid",
-            sy("e", "e"),
-        );
-        let mut terms = Vec::new();
-        for (i, s) in m.strands.iter().enumerate() {
-            terms.push(mul(vec![v(3 * i), v(3 * i + 1), v(3 * i + 2)]));
-            st = st
-                .input(sym_k("f", "\"se\"", "fse", i + 1), at[i].fse, Unit::Stress)
-                .input(sym_k("A", "\"ps\"", "Aps", i + 1), s.total_area(), Unit::Area)
-                .input(sym_k("y", "", "y", i + 1), at[i].yb, Unit::Length);
-        }
-        let k = 3 * m.strands.len();
-        st = st.input(sy("P_e", "Pe"), pe * cv.kf, Unit::Force);
-        if pe > 0.0 {
-            st = st.formula(div(per(add(terms), cv.f_div), v(k)));
-        } else {
-            st = st.note("no prestress at this location");
-        }
-        st.result(e, Unit::Length).note("y: each layer's distance below the centroid of the precast unit")
-    });
-    for (i, a) in at.iter().enumerate() {
-        let k = i + 1;
-        tr.rec(|| {
-            // eps2 = Pe/(A Ec) + Pe e y / (I Ec), with Pe shown
-            Step::new(
-                "prestress",
-                tag(&format!("prestress.eps2.{k}")),
-                format!("Decompression strain, layer {k}"),
-                sym_k("epsilon", "2", "eps2", k),
-            )
-            .formula(add(vec![
-                per(div(v(0), mul(vec![v(1), v(2)])), cv.kf),
-                per(div(mul(vec![v(0), v(3), v(4)]), mul(vec![v(5), v(2)])), cv.kf),
-            ]))
-            .input(sy("P_e", "Pe"), pe * cv.kf, Unit::Force)
-            .input(sy("A", "A"), area, Unit::Area)
-            .input(sy("E_c", "Ec"), ec, Unit::Stress)
-            .input(sy("e", "e"), e, Unit::Length)
-            .input(sym_k("y", "", "y", k), a.yb, Unit::Length)
-            .input(sy("I", "I"), inertia, Unit::Inertia)
-            .result(a.eps2, Unit::Strain)
-            .note(
-                "strain change in the concrete at the layer when the prestress is decompressed; precast section alone",
-            )
-        });
-    }
+}
 
-    Prestress { at, pe, e }
+/// fse at x of a layer that transfers less than fse there: within the transfer length,
+/// debonded, or before the bond begins.
+fn fse_at_x_step(li: usize, k: usize, s: &StrandLayer, a: &StrandAt) -> Step {
+    let title = "Effective prestress at x";
+    let st = layer_step("prestress", li, "prestress.fsex", k, title, sym_k("f", "\"se,x\"", "fse,x", k));
+    match &a.dev {
+        Some(d) if d.x_bond > 0.0 => st
+            .formula(div(mul(vec![v(0), v(1)]), v(2)))
+            .input(sym_k("f", "\"se\"", "fse", k), s.fse, Unit::Stress)
+            .input(sy("x_b", "xb"), d.x_bond, Unit::Length)
+            .input(sy("ell_\"tr\"", "ltr"), d.transfer_length, Unit::Length)
+            .result(a.fse, Unit::Stress)
+            .note("inside the transfer length: prestress transferred in proportion to the bonded length"),
+        _ if s.debonded_length > 0.0 => st.result(a.fse, Unit::Stress).note("debonded here: no prestress"),
+        _ => st.result(a.fse, Unit::Stress).note("at the member end: the bond has not begun, no prestress"),
+    }
+}
+
+fn force_step(p: &Prepared, li: usize, at: &[StrandAt], pe: f64) -> Step {
+    let mut st = Step::new("prestress", tag(li, "prestress.Pe"), "Effective prestress force", sy("P_e", "Pe"));
+    let mut terms = Vec::new();
+    for (i, s) in p.m.strands.iter().enumerate() {
+        terms.push(mul(vec![v(2 * i), v(2 * i + 1)]));
+        st = st.input(sym_k("f", "\"se\"", "fse", i + 1), at[i].fse, Unit::Stress).input(
+            sym_k("A", "\"ps\"", "Aps", i + 1),
+            s.total_area(),
+            Unit::Area,
+        );
+    }
+    st.formula(per(add(terms), p.cv.f_div)).result(pe * p.cv.kf, Unit::Force)
+}
+
+fn eccentricity_step(p: &Prepared, li: usize, at: &[StrandAt], pe: f64, e: f64) -> Step {
+    let title = "Eccentricity of the prestress below the precast centroid";
+    let mut st = Step::new("prestress", tag(li, "prestress.e"), title, sy("e", "e"));
+    let mut terms = Vec::new();
+    for (i, s) in p.m.strands.iter().enumerate() {
+        terms.push(mul(vec![v(3 * i), v(3 * i + 1), v(3 * i + 2)]));
+        st = st
+            .input(sym_k("f", "\"se\"", "fse", i + 1), at[i].fse, Unit::Stress)
+            .input(sym_k("A", "\"ps\"", "Aps", i + 1), s.total_area(), Unit::Area)
+            .input(sym_k("y", "", "y", i + 1), at[i].yb, Unit::Length);
+    }
+    let k = 3 * p.m.strands.len();
+    st = st.input(sy("P_e", "Pe"), pe * p.cv.kf, Unit::Force);
+    if pe > 0.0 {
+        st = st.formula(div(per(add(terms), p.cv.f_div), v(k)));
+    } else {
+        st = st.note("no prestress at this location");
+    }
+    st.result(e, Unit::Length).note("y: each layer's distance below the centroid of the precast unit")
+}
+
+/// eps2 = Pe/(A Ec) + Pe e y / (I Ec), with Pe shown.
+fn decompression_step(p: &Prepared, li: usize, k: usize, a: &StrandAt, pe: f64, e: f64) -> Step {
+    let cv = p.cv;
+    let (area, inertia, ec) = (p.precast.area, p.precast.i, p.m.concrete.ec);
+    let title = "Decompression strain";
+    layer_step("prestress", li, "prestress.eps2", k, title, sym_k("epsilon", "2", "eps2", k))
+        .formula(add(vec![
+            per(div(v(0), mul(vec![v(1), v(2)])), cv.kf),
+            per(div(mul(vec![v(0), v(3), v(4)]), mul(vec![v(5), v(2)])), cv.kf),
+        ]))
+        .input(sy("P_e", "Pe"), pe * cv.kf, Unit::Force)
+        .input(sy("A", "A"), area, Unit::Area)
+        .input(sy("E_c", "Ec"), ec, Unit::Stress)
+        .input(sy("e", "e"), e, Unit::Length)
+        .input(sym_k("y", "", "y", k), a.yb, Unit::Length)
+        .input(sy("I", "I"), inertia, Unit::Inertia)
+        .result(a.eps2, Unit::Strain)
+        .note("strain change in the concrete at the layer when the prestress is decompressed; precast section alone")
 }

@@ -140,6 +140,23 @@ pub struct Approximate {
     pub difference: Option<f64>,
 }
 
+impl Approximate {
+    /// The approximate method does not apply here, for the reason given.
+    pub fn not_applicable(reason: String) -> Approximate {
+        Approximate {
+            applicable: false,
+            reason: Some(reason),
+            gamma_p: None,
+            rho_p: None,
+            fps: None,
+            a: None,
+            flanged: false,
+            mn: None,
+            difference: None,
+        }
+    }
+}
+
 /// The result with the other stress-block option, for comparison.
 #[derive(Debug, Clone, Serialize)]
 pub struct OtherBlock {

@@ -6,7 +6,7 @@
 //! exactly from the section outline; steel strain eps = pre + 0.003 (d - c) / c, where pre
 //! is eps1 + eps2 for strand (effective prestrain and decompression) and 0 for bars.
 //! Steel inside the block has the concrete it displaces deducted. The residual is the
-//! concrete force minus the steel forces (tension positive).
+//! concrete's compression force (a magnitude) minus the steel forces (tension positive).
 
 use crate::material::steel::Bar;
 use crate::material::strand::Curve as StrandCurve;
@@ -21,10 +21,24 @@ pub struct Part<'a> {
     pub stress: f64,
 }
 
+/// The stress-strain law of a steel layer at nominal strength: a strand curve, or an
+/// elastic-perfectly-plastic bar. Strain and stress are tension positive, as in the
+/// concrete's law of the fibre analysis (`material::concrete::ConcreteLaw`).
 #[derive(Debug, Clone, Copy)]
-pub enum Law {
+pub enum SteelLaw {
     Strand(StrandCurve),
     Bar(Bar),
+}
+
+impl SteelLaw {
+    /// Stress for a total strain, both tension positive (before any cap).
+    #[inline]
+    pub fn stress(&self, eps: f64) -> f64 {
+        match self {
+            SteelLaw::Strand(s) => s.stress(eps),
+            SteelLaw::Bar(b) => b.stress(eps),
+        }
+    }
 }
 
 /// A steel layer as the solver sees it.
@@ -40,7 +54,7 @@ pub struct Steel {
     pub pre: f64,
     /// Largest tensile stress it may carry (fpx of a strand not fully developed).
     pub cap: f64,
-    pub law: Law,
+    pub law: SteelLaw,
     /// Block stress of the concrete it displaces when inside the block.
     pub displaced: f64,
 }
@@ -52,11 +66,7 @@ impl Steel {
     }
     #[inline]
     pub fn stress_at(&self, eps: f64) -> f64 {
-        let f = match self.law {
-            Law::Strand(s) => s.stress(eps),
-            Law::Bar(b) => b.stress(eps),
-        };
-        f.min(self.cap)
+        self.law.stress(eps).min(self.cap)
     }
     /// The share of the layer inside a block of depth a (0 to 1, linear over its
     /// diameter so that the force is continuous in c).

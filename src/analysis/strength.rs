@@ -6,7 +6,7 @@
 
 use super::prepare::Prepared;
 use super::prestress::StrandAt;
-use super::solve::{self, Law, Model, Part, State, Steel, Trial};
+use super::solve::{self, Model, Part, State, Steel, SteelLaw, Trial};
 use super::station::Station;
 use super::{LayerOut, OtherBlock, checks, sy, sym_k};
 use crate::basis::Clause;
@@ -62,7 +62,7 @@ pub(super) fn model_for<'a>(p: &'a Prepared, parts: Vec<Part<'a>>, at: &[StrandA
             db: s.diameter,
             pre: a.eps1 + a.eps2,
             cap: caps[i],
-            law: Law::Strand(p.curves[i]),
+            law: SteelLaw::Strand(p.curves[i]),
             displaced: if a.active { block_stress_at(&parts, p, a.d) } else { 0.0 },
         });
     }
@@ -74,7 +74,7 @@ pub(super) fn model_for<'a>(p: &'a Prepared, parts: Vec<Part<'a>>, at: &[StrandA
             db: b.diameter,
             pre: 0.0,
             cap: f64::INFINITY,
-            law: Law::Bar(Bar { fy: b.fy, es: b.es, hardening: 0.0, fu: b.fy }),
+            law: SteelLaw::Bar(Bar { fy: b.fy, es: b.es, hardening: 0.0, fu: b.fy }),
             displaced: block_stress_at(&parts, p, d),
         });
     }
@@ -435,10 +435,7 @@ fn record_layer(
                 .result(eps, Unit::Strain)
             });
             let curve = p.curves[i];
-            let raw = match stl.law {
-                Law::Strand(cu) => cu.stress(eps),
-                Law::Bar(b) => b.stress(eps),
-            };
+            let raw = stl.law.stress(eps);
             tr.rec(|| {
                 let stp = Step::new(
                     "strength",
@@ -463,8 +460,8 @@ fn record_layer(
             });
         } else {
             let b = match stl.law {
-                Law::Bar(b) => b,
-                Law::Strand(_) => Bar { fy: 0.0, es: 0.0, hardening: 0.0, fu: 0.0 },
+                SteelLaw::Bar(b) => b,
+                SteelLaw::Strand(_) => Bar { fy: 0.0, es: 0.0, hardening: 0.0, fu: 0.0 },
             };
             tr.rec(|| {
                 let stp = Step::new(

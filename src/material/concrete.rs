@@ -15,10 +15,11 @@ pub enum Curve {
     Popovics,
 }
 
-/// A concrete stress-strain law (compression positive here: strain and stress both
-/// taken positive in compression).
+/// The stress-strain law of a concrete for the fibre analysis. Strain and stress are
+/// tension positive, as in the strand and bar curves: a compressive strain is negative
+/// and gives a negative stress. The parameters (`peak`, `eps0`) are magnitudes.
 #[derive(Debug, Clone, Copy)]
-pub struct Law {
+pub struct ConcreteLaw {
     pub curve: Curve,
     pub fc: f64,
     pub ec: f64,
@@ -32,12 +33,12 @@ pub struct Law {
     pub k_post: f64,
 }
 
-impl Law {
-    pub fn new(curve: Curve, fc: f64, ec: f64, fr: f64, sys: System) -> Law {
+impl ConcreteLaw {
+    pub fn new(curve: Curve, fc: f64, ec: f64, fr: f64, sys: System) -> ConcreteLaw {
         match curve {
             Curve::Hognestad => {
                 let peak = 0.85 * fc;
-                Law { curve, fc, ec, fr, peak, eps0: 2.0 * peak / ec, n: 0.0, k_post: 0.0 }
+                ConcreteLaw { curve, fc, ec, fr, peak, eps0: 2.0 * peak / ec, n: 0.0, k_post: 0.0 }
             }
             Curve::Popovics => {
                 let (n_div, k_div) = match sys {
@@ -47,13 +48,13 @@ impl Law {
                 let n = 0.8 + fc / n_div;
                 let k_post = (0.67 + fc / k_div).max(1.0);
                 let eps0 = fc / ec * n / (n - 1.0);
-                Law { curve, fc, ec, fr, peak: fc, eps0, n, k_post }
+                ConcreteLaw { curve, fc, ec, fr, peak: fc, eps0, n, k_post }
             }
         }
     }
 
-    /// Stress for a strain, tension positive (so compression gives a negative stress).
-    /// Tension: linear to fr, then zero. Compression beyond the curve's end: zero.
+    /// Stress for a strain, both tension positive (a negative strain gives a negative
+    /// stress). Tension: linear to fr, then zero. Compression beyond the curve's end: zero.
     #[inline]
     pub fn stress(&self, eps: f64) -> f64 {
         if eps >= 0.0 {
@@ -87,7 +88,7 @@ mod tests {
 
     #[test]
     fn hognestad_shape() {
-        let l = Law::new(Curve::Hognestad, 5.0, 4030.5, 0.53, System::Us);
+        let l = ConcreteLaw::new(Curve::Hognestad, 5.0, 4030.5, 0.53, System::Us);
         // the peak f''c = 0.85 f'c at eps0 = 2 f''c / Ec
         assert!((l.stress(-l.eps0) + 4.25).abs() < 1e-12);
         // 15 % lower at 0.0038
@@ -99,7 +100,7 @@ mod tests {
 
     #[test]
     fn popovics_peak_at_fc() {
-        let l = Law::new(Curve::Popovics, 10.0, 5700.0, 0.75, System::Us);
+        let l = ConcreteLaw::new(Curve::Popovics, 10.0, 5700.0, 0.75, System::Us);
         assert!((l.stress(-l.eps0) + 10.0).abs() < 1e-9);
         assert!(l.stress(-1.5 * l.eps0) > -10.0);
     }

@@ -16,8 +16,35 @@ pub(super) fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
     let date = cx.date("date", &p.date);
     let date = cx.required("date", date, "the report date, e.g. 2026-11-30");
     let notes = cx.text("notes", &p.notes, limits::TEXT);
+    let basis_id = basis_id(cx, p);
+    let basis = cx.basis.name().to_string();
+    let paper = paper(cx, p);
+    let revisions = revisions(cx, p, revision.as_ref());
+    let signoffs = signoffs(cx, p);
+    check_signoffs(cx, &signoffs);
+
+    Some(Meta {
+        title: title?,
+        project: project?,
+        project_number,
+        client,
+        subject,
+        revision: revision?,
+        date: date?,
+        basis,
+        basis_id,
+        paper,
+        notes,
+        revisions,
+        signoffs,
+    })
+}
+
+/// The design basis named (ACI 318-19 by default), which the rest of the input then
+/// follows (`cx.basis`).
+fn basis_id(cx: &mut Ctx, p: &raw::Package) -> BasisId {
     let named = p.basis.clone().unwrap_or_else(|| "ACI 318-19".to_string());
-    let basis_id = match BasisId::select(&named, cx.sys) {
+    match BasisId::select(&named, cx.sys) {
         Ok(id) => {
             cx.basis = id.get(cx.sys);
             id
@@ -30,9 +57,12 @@ pub(super) fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
             );
             BasisId::Aci318
         }
-    };
-    let basis = cx.basis.name().to_string();
-    let paper = match p.paper.as_deref() {
+    }
+}
+
+/// The paper size: letter for US units, A4 for SI, unless named.
+fn paper(cx: &mut Ctx, p: &raw::Package) -> Paper {
+    match p.paper.as_deref() {
         None => match cx.sys {
             System::Us => Paper::Letter,
             System::Si => Paper::A4,
@@ -47,8 +77,11 @@ pub(super) fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
             );
             Paper::Letter
         }
-    };
+    }
+}
 
+/// The revision history, oldest first, ending with the current revision.
+fn revisions(cx: &mut Ctx, p: &raw::Package, revision: Option<&String>) -> Vec<Revision> {
     let mut revisions = Vec::new();
     for (i, r) in p.revisions.iter().enumerate() {
         cx.enter(Seg::Key("revisions"));
@@ -73,7 +106,7 @@ pub(super) fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
         cx.leave();
         cx.leave();
     }
-    if let (Some(last), Some(revision)) = (revisions.last(), &revision)
+    if let (Some(last), Some(revision)) = (revisions.last(), revision)
         && &last.rev != revision
     {
         cx.problem(
@@ -82,28 +115,16 @@ pub(super) fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
             Some("the current revision as the last entry of [[package.revisions]]".to_string()),
         );
     }
+    revisions
+}
 
+/// The sign-offs, one per role.
+fn signoffs(cx: &mut Ctx, p: &raw::Package) -> Vec<Signoff> {
     let mut signoffs: Vec<Signoff> = Vec::new();
     for (i, s) in p.signoff.iter().enumerate() {
         cx.enter(Seg::Key("signoff"));
         cx.enter(Seg::Idx(i));
-        let role = match s.role.as_deref() {
-            Some("prepared") => Some(Role::Prepared),
-            Some("checked") => Some(Role::Checked),
-            Some("approved") => Some(Role::Approved),
-            Some(other) => {
-                cx.problem(
-                    "role",
-                    format!("role = {other:?} is not a sign-off role"),
-                    Some("\"prepared\", \"checked\" or \"approved\"".to_string()),
-                );
-                None
-            }
-            None => {
-                cx.problem("role", "role is missing", Some("\"prepared\", \"checked\" or \"approved\"".to_string()));
-                None
-            }
-        };
+        let role = role(cx, s);
         let name = cx.text("name", &s.name, 60);
         let name = cx.required("name", name, "the name of the person signing");
         let license = cx.text("license", &s.license, 40);
@@ -122,6 +143,33 @@ pub(super) fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
         cx.leave();
         cx.leave();
     }
+    signoffs
+}
+
+fn role(cx: &mut Ctx, s: &raw::Signoff) -> Option<Role> {
+    match s.role.as_deref() {
+        Some("prepared") => Some(Role::Prepared),
+        Some("checked") => Some(Role::Checked),
+        Some("approved") => Some(Role::Approved),
+        Some(other) => {
+            cx.problem(
+                "role",
+                format!("role = {other:?} is not a sign-off role"),
+                Some("\"prepared\", \"checked\" or \"approved\"".to_string()),
+            );
+            None
+        }
+        None => {
+            cx.problem("role", "role is missing", Some("\"prepared\", \"checked\" or \"approved\"".to_string()));
+            None
+        }
+    }
+}
+
+/// The sign-offs together: a draft without a preparer and a checker, a checker who is
+/// not the preparer, and the dates in order (prepared <= checked <= approved, and no
+/// later role dated before an earlier one is).
+fn check_signoffs(cx: &mut Ctx, signoffs: &[Signoff]) {
     let find = |r: Role| signoffs.iter().position(|s| s.role == r);
     let at_signoff = |i: usize| vec![Seg::Key("package"), Seg::Key("signoff"), Seg::Idx(i)];
     // a quick check needs no sign-offs; the package is then a draft (Meta::is_draft)
@@ -147,8 +195,6 @@ pub(super) fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
             allowed: Some("a checker who is not the person who prepared the package".to_string()),
         });
     }
-    // dates in order: prepared <= checked <= approved, and no later role dated before an
-    // earlier one is
     let order: Vec<(usize, &Signoff)> = [Role::Prepared, Role::Checked, Role::Approved]
         .iter()
         .filter_map(|r| find(*r).map(|i| (i, &signoffs[i])))
@@ -172,20 +218,4 @@ pub(super) fn meta(cx: &mut Ctx, p: &raw::Package) -> Option<Meta> {
             allowed: Some("sign-off dates in order: prepared, then checked, then approved".to_string()),
         });
     }
-
-    Some(Meta {
-        title: title?,
-        project: project?,
-        project_number,
-        client,
-        subject,
-        revision: revision?,
-        date: date?,
-        basis,
-        basis_id,
-        paper,
-        notes,
-        revisions,
-        signoffs,
-    })
 }

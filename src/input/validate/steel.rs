@@ -102,10 +102,48 @@ pub(super) fn strand_layer(
     length: Option<f64>,
     defaults: &mut Vec<Default>,
 ) -> Option<StrandLayer> {
-    let sys = cx.sys;
-    let names = sys.names();
     let h = region.y_top() - region.y_bot();
-    let max = ranges(sys).dim_max;
+    let profile = strand_profile(cx, s, h, length)?;
+    let count = cx.count("count", s.count, 1, limits::STRANDS_PER_LAYER);
+    let count = cx.required("count", count, "the number of strands in the layer")?;
+    let (fpu, grade, model) = strand_grade(cx, s, defaults)?;
+    let (diameter, area, size) = strand_size(cx, s, grade)?;
+    let fpy = match &s.fpy {
+        Some(_) => cx.ranged("fpy", &s.fpy, Dim::Stress, 0.8 * fpu, 0.95 * fpu, false)?,
+        None => {
+            defaults.push(Default { key: "strands.fpy".into(), text: "fpy = 0.90 fpu (low-relaxation strand)".into() });
+            0.9 * fpu
+        }
+    };
+    let (fse, fse_source) = strand_prestress(cx, s, fpu, fpy, defaults)?;
+    let debonded_length = match &s.debonded_length {
+        Some(_) => {
+            let limit = length.map_or(ranges(cx.sys).length_max, |l| l / 2.0);
+            cx.ranged("debonded_length", &s.debonded_length, Dim::Length, 0.0, limit, false)?
+        }
+        None => 0.0,
+    };
+    // inside the concrete, at every level the layer takes
+    let levels: Vec<(f64, &'static str)> = match profile {
+        Profile::Straight { depth } => vec![(depth, if s.height.is_some() { "height" } else { "depth" })],
+        Profile::Harped { depth_end, depth_harp, .. } => {
+            let (a, b) =
+                if s.depth_end.is_some() { ("depth_end", "depth_harp") } else { ("height_end", "height_harp") };
+            vec![(depth_end, a), (depth_harp, b)]
+        }
+    };
+    for (d, key) in levels {
+        if !check_inside(cx, key, region, d, count, diameter) {
+            return None;
+        }
+    }
+    Some(StrandLayer { profile, count, diameter, area, size, fpu, fpy, grade, model, fse, fse_source, debonded_length })
+}
+
+/// The layer's level: straight at a depth from the top of the precast unit (or a height
+/// from its bottom), or harped; a precast unit `h` deep.
+fn strand_profile(cx: &mut Ctx, s: &raw::Strands, h: f64, length: Option<f64>) -> Option<Profile> {
+    let max = ranges(cx.sys).dim_max;
     let how = exclusive(
         cx,
         &[
@@ -116,71 +154,10 @@ pub(super) fn strand_layer(
         ],
         "the layer's level (depth from the top of the precast unit, or height from its bottom; harped: depth_end and depth_harp, or height_end and height_harp, with harp_x)",
     );
-    let lvl = |cx: &mut Ctx, key: &'static str, q: &Option<Q>| cx.ranged(key, q, Dim::Length, 0.0, max, true);
     let profile = match how? {
-        "depth" => Profile::Straight { depth: lvl(cx, "depth", &s.depth)? },
-        "height" => Profile::Straight { depth: h - lvl(cx, "height", &s.height)? },
-        harped => {
-            let (end, harp, e_key, h_key) = if harped == "depth_end" {
-                (&s.depth_end, &s.depth_harp, "depth_end", "depth_harp")
-            } else {
-                (&s.height_end, &s.height_harp, "height_end", "height_harp")
-            };
-            let e = cx.required(e_key, end.as_ref(), "the level at the member end").cloned();
-            let hp = cx.required(h_key, harp.as_ref(), "the level at the harp point").cloned();
-            let e = lvl(cx, e_key, &e)?;
-            let hp = lvl(cx, h_key, &hp)?;
-            let (de, dh) = if harped == "depth_end" { (e, hp) } else { (h - e, h - hp) };
-            let hx = cx.required("harp_x", s.harp_x.as_ref(), "the harp point's distance from the member end").cloned();
-            match (&s.harp_x2, length) {
-                (Some(_), None) => {
-                    cx.problem(
-                        "harp_x2",
-                        "harp_x2 is given but the member has no length",
-                        Some("give the member's length (end to end), or leave harp_x2 out".to_string()),
-                    );
-                    return None;
-                }
-                (Some(_), Some(len)) => {
-                    let hx = cx.ranged("harp_x", &hx, Dim::Length, 0.0, len, true)?;
-                    let hx2 = cx.ranged("harp_x2", &s.harp_x2, Dim::Length, 0.0, len, true)?;
-                    if !(hx2 > hx && hx2 < len) {
-                        cx.problem(
-                            "harp_x2",
-                            format!(
-                                "harp_x2 = {} is not between harp_x = {} and the member's length {}",
-                                cx.shown(Dim::Length, hx2),
-                                cx.shown(Dim::Length, hx),
-                                cx.shown(Dim::Length, len)
-                            ),
-                            Some(
-                                "the second harp point's distance from the left end: harp_x < harp_x2 < length"
-                                    .to_string(),
-                            ),
-                        );
-                        return None;
-                    }
-                    Profile::Harped {
-                        depth_end: de,
-                        depth_harp: dh,
-                        harp_x: hx,
-                        harp_x2: Some(hx2),
-                        harp_x2_given: true,
-                    }
-                }
-                (None, _) => {
-                    let limit = length.map_or(ranges(sys).length_max, |l| l / 2.0);
-                    let hx = cx.ranged("harp_x", &hx, Dim::Length, 0.0, limit, true)?;
-                    Profile::Harped {
-                        depth_end: de,
-                        depth_harp: dh,
-                        harp_x: hx,
-                        harp_x2: length.map(|l| l - hx),
-                        harp_x2_given: false,
-                    }
-                }
-            }
-        }
+        "depth" => Profile::Straight { depth: cx.ranged("depth", &s.depth, Dim::Length, 0.0, max, true)? },
+        "height" => Profile::Straight { depth: h - cx.ranged("height", &s.height, Dim::Length, 0.0, max, true)? },
+        harped => harped_profile(cx, s, harped == "depth_end", h, length)?,
     };
     for (key, given) in [("harp_x", s.harp_x.is_some()), ("harp_x2", s.harp_x2.is_some())] {
         if given && matches!(profile, Profile::Straight { .. }) {
@@ -192,9 +169,70 @@ pub(super) fn strand_layer(
             return None;
         }
     }
-    let count = cx.count("count", s.count, 1, limits::STRANDS_PER_LAYER);
-    let count = cx.required("count", count, "the number of strands in the layer")?;
+    Some(profile)
+}
 
+/// A harped layer: its levels at the member end and at the harp points (as depths, or
+/// as heights when `by_depth` is false) and the harp points' distances.
+fn harped_profile(cx: &mut Ctx, s: &raw::Strands, by_depth: bool, h: f64, length: Option<f64>) -> Option<Profile> {
+    let max = ranges(cx.sys).dim_max;
+    let (end, harp, e_key, h_key) = if by_depth {
+        (&s.depth_end, &s.depth_harp, "depth_end", "depth_harp")
+    } else {
+        (&s.height_end, &s.height_harp, "height_end", "height_harp")
+    };
+    let e = cx.required(e_key, end.as_ref(), "the level at the member end").cloned();
+    let hp = cx.required(h_key, harp.as_ref(), "the level at the harp point").cloned();
+    let e = cx.ranged(e_key, &e, Dim::Length, 0.0, max, true)?;
+    let hp = cx.ranged(h_key, &hp, Dim::Length, 0.0, max, true)?;
+    let (depth_end, depth_harp) = if by_depth { (e, hp) } else { (h - e, h - hp) };
+    let hx = cx.required("harp_x", s.harp_x.as_ref(), "the harp point's distance from the member end").cloned();
+    let (harp_x, harp_x2, harp_x2_given) = match (&s.harp_x2, length) {
+        (Some(_), None) => {
+            cx.problem(
+                "harp_x2",
+                "harp_x2 is given but the member has no length",
+                Some("give the member's length (end to end), or leave harp_x2 out".to_string()),
+            );
+            return None;
+        }
+        (Some(_), Some(len)) => {
+            let (hx, hx2) = second_harp_point(cx, s, &hx, len)?;
+            (hx, Some(hx2), true)
+        }
+        (None, _) => {
+            let limit = length.map_or(ranges(cx.sys).length_max, |l| l / 2.0);
+            let hx = cx.ranged("harp_x", &hx, Dim::Length, 0.0, limit, true)?;
+            (hx, length.map(|l| l - hx), false)
+        }
+    };
+    Some(Profile::Harped { depth_end, depth_harp, harp_x, harp_x2, harp_x2_given })
+}
+
+/// harp_x and harp_x2 of a layer with two harp points given: harp_x < harp_x2 < length.
+fn second_harp_point(cx: &mut Ctx, s: &raw::Strands, hx: &Option<Q>, len: f64) -> Option<(f64, f64)> {
+    let hx = cx.ranged("harp_x", hx, Dim::Length, 0.0, len, true)?;
+    let hx2 = cx.ranged("harp_x2", &s.harp_x2, Dim::Length, 0.0, len, true)?;
+    if !(hx2 > hx && hx2 < len) {
+        cx.problem(
+            "harp_x2",
+            format!(
+                "harp_x2 = {} is not between harp_x = {} and the member's length {}",
+                cx.shown(Dim::Length, hx2),
+                cx.shown(Dim::Length, hx),
+                cx.shown(Dim::Length, len)
+            ),
+            Some("the second harp point's distance from the left end: harp_x < harp_x2 < length".to_string()),
+        );
+        return None;
+    }
+    Some((hx, hx2))
+}
+
+/// The strand's fpu (Grade 270 by default), its grade and the strand model fitted to it.
+fn strand_grade(cx: &mut Ctx, s: &raw::Strands, defaults: &mut Vec<Default>) -> Option<(f64, Grade, Model)> {
+    let sys = cx.sys;
+    let names = sys.names();
     let fpu = match &s.fpu {
         Some(_) => {
             let (lo, hi) = match sys {
@@ -227,25 +265,7 @@ pub(super) fn strand_layer(
         );
         return None;
     };
-    let model = match s.model.as_deref() {
-        None => {
-            defaults.push(Default {
-                key: "strands.model".into(),
-                text: "strand model \"pci\" (PCI Design Handbook two-branch curve)".into(),
-            });
-            Model::Pci
-        }
-        Some("pci") => Model::Pci,
-        Some("power") => Model::Power,
-        Some(other) => {
-            cx.problem(
-                "model",
-                format!("model = {other:?} is not a strand model this version knows"),
-                Some("\"pci\" or \"power\"".to_string()),
-            );
-            return None;
-        }
-    };
+    let model = strand_model(cx, s, defaults)?;
     if StrandCurve::new(model, grade, sys).is_none() {
         cx.problem(
             "model",
@@ -254,8 +274,37 @@ pub(super) fn strand_layer(
         );
         return None;
     }
+    Some((fpu, grade, model))
+}
 
-    // size: diameter (area from the table, or given), or area alone (a standard size)
+fn strand_model(cx: &mut Ctx, s: &raw::Strands, defaults: &mut Vec<Default>) -> Option<Model> {
+    match s.model.as_deref() {
+        None => {
+            defaults.push(Default {
+                key: "strands.model".into(),
+                text: "strand model \"pci\" (PCI Design Handbook two-branch curve)".into(),
+            });
+            Some(Model::Pci)
+        }
+        Some("pci") => Some(Model::Pci),
+        Some("power") => Some(Model::Power),
+        Some(other) => {
+            cx.problem(
+                "model",
+                format!("model = {other:?} is not a strand model this version knows"),
+                Some("\"pci\" or \"power\"".to_string()),
+            );
+            None
+        }
+    }
+}
+
+/// The strand's size: its diameter (the area from the table, or given), or its area
+/// alone (a standard size). Returns the diameter, the area and the standard size's name.
+fn strand_size(cx: &mut Ctx, s: &raw::Strands, grade: Grade) -> Option<(f64, f64, Option<&'static str>)> {
+    let sys = cx.sys;
+    let names = sys.names();
+    let max = ranges(sys).dim_max;
     let diameter = match &s.diameter {
         Some(_) => Some(cx.ranged("diameter", &s.diameter, Dim::Length, 0.0, max / 10.0, true)?),
         None => None,
@@ -264,51 +313,17 @@ pub(super) fn strand_layer(
         Some(_) => Some(cx.ranged("area", &s.area, Dim::Area, 0.0, max, true)?),
         None => None,
     };
-    let (diameter, area, size) = match (diameter, area) {
-        (Some(d), a) => match catalog::strand_by_diameter(d, grade, sys) {
-            Some(std) => {
-                if let Some(a) = a
-                    && (a - std.area).abs() > 0.02 * std.area
-                {
-                    cx.warn(
-                        "area",
-                        format!(
-                            "area {} {} differs from the standard {} {} of {} strand",
-                            num(a),
-                            names.area,
-                            num(std.area),
-                            names.area,
-                            std.name
-                        ),
-                    );
-                }
-                (std.diameter, a.unwrap_or(std.area), Some(std.name))
-            }
-            None => match a {
-                Some(a) => (d, a, None),
-                None => {
-                    cx.problem(
-                        "diameter",
-                        format!(
-                            "diameter = {} {} is not a standard size of this strand grade; its area is unknown",
-                            num(d),
-                            names.length
-                        ),
-                        Some(format!("a standard diameter: {}; or give area too", catalog::strand_names(grade, sys))),
-                    );
-                    return None;
-                }
-            },
-        },
+    match (diameter, area) {
+        (Some(d), a) => size_by_diameter(cx, d, a, grade),
         (None, Some(a)) => match catalog::strand_by_area(a, grade, sys) {
-            Some(std) => (std.diameter, a, Some(std.name)),
+            Some(std) => Some((std.diameter, a, Some(std.name))),
             None => {
                 cx.problem(
                     "area",
                     format!("area = {} {} is not a standard strand area, so the diameter (needed for development length) is unknown", num(a), names.area),
                     Some("give diameter as well".to_string()),
                 );
-                return None;
+                None
             }
         },
         (None, None) => {
@@ -317,105 +332,121 @@ pub(super) fn strand_layer(
                 "diameter is missing",
                 Some(format!("the strand's nominal diameter: {}", catalog::strand_names(grade, sys))),
             );
-            return None;
+            None
         }
-    };
+    }
+}
 
-    let fpy = match &s.fpy {
-        Some(_) => cx.ranged("fpy", &s.fpy, Dim::Stress, 0.8 * fpu, 0.95 * fpu, false)?,
-        None => {
-            defaults.push(Default { key: "strands.fpy".into(), text: "fpy = 0.90 fpu (low-relaxation strand)".into() });
-            0.9 * fpu
+/// The size of a strand given by its diameter: a standard size (an area given too is
+/// kept, with a warning where it differs from the table's), or any diameter with its area.
+fn size_by_diameter(cx: &mut Ctx, d: f64, a: Option<f64>, grade: Grade) -> Option<(f64, f64, Option<&'static str>)> {
+    let sys = cx.sys;
+    let names = sys.names();
+    match catalog::strand_by_diameter(d, grade, sys) {
+        Some(std) => {
+            if let Some(a) = a
+                && (a - std.area).abs() > 0.02 * std.area
+            {
+                cx.warn(
+                    "area",
+                    format!(
+                        "area {} {} differs from the standard {} {} of {} strand",
+                        num(a),
+                        names.area,
+                        num(std.area),
+                        names.area,
+                        std.name
+                    ),
+                );
+            }
+            Some((std.diameter, a.unwrap_or(std.area), Some(std.name)))
         }
-    };
+        None => match a {
+            Some(a) => Some((d, a, None)),
+            None => {
+                cx.problem(
+                    "diameter",
+                    format!(
+                        "diameter = {} {} is not a standard size of this strand grade; its area is unknown",
+                        num(d),
+                        names.length
+                    ),
+                    Some(format!("a standard diameter: {}; or give area too", catalog::strand_names(grade, sys))),
+                );
+                None
+            }
+        },
+    }
+}
+
+/// The effective prestress: fse given, or the jacking stress (0.75 fpu by default) less
+/// the losses; a warning where it exceeds the basis's jacking limit.
+fn strand_prestress(
+    cx: &mut Ctx,
+    s: &raw::Strands,
+    fpu: f64,
+    fpy: f64,
+    defaults: &mut Vec<Default>,
+) -> Option<(f64, FseSource)> {
     let jack_limit = cx.basis.jacking_limit(fpu, fpy);
     let how = exclusive(
         cx,
         &[("fse", s.fse.is_some()), ("losses", s.losses.is_some())],
         "the effective prestress (fse, or losses with jacking)",
     )?;
-    let (fse, fse_source) = if how == "fse" {
+    if how == "fse" {
         if s.jacking.is_some() {
             cx.problem("jacking", "jacking is given with fse", Some("fse alone, or jacking with losses".to_string()));
             return None;
         }
-        let v = cx.quantity("fse", &s.fse, Dim::Stress)?;
-        if !(0.0..fpu).contains(&v) {
-            cx.problem(
-                "fse",
-                format!("fse = {} is out of range", cx.shown(Dim::Stress, v)),
-                Some(format!("0 <= fse < fpu = {}", cx.shown(Dim::Stress, fpu))),
-            );
-            return None;
-        }
+        let v = stress_below(cx, "fse", &s.fse, fpu, "fpu")?;
         if v > jack_limit {
-            cx.warn(
-                "fse",
-                format!(
-                    "fse = {} exceeds the jacking limit {} = {} of {}",
-                    cx.shown(Dim::Stress, v),
-                    cx.basis.jacking_limit_text(),
-                    cx.shown(Dim::Stress, jack_limit),
-                    cx.basis.cite(Clause::JackingLimit)
-                ),
+            let message = format!(
+                "fse = {} exceeds the jacking limit {} = {} of {}",
+                cx.shown(Dim::Stress, v),
+                cx.basis.jacking_limit_text(),
+                cx.shown(Dim::Stress, jack_limit),
+                cx.basis.cite(Clause::JackingLimit)
             );
+            cx.warn("fse", message);
         }
-        (v, FseSource::Given)
-    } else {
-        let jacking = match s.jacking {
-            Some(j) => cx.ratio("jacking", Some(j), 0.5, 0.85)?,
-            None => {
-                defaults.push(Default { key: "strands.jacking".into(), text: "jacking stress fpj = 0.75 fpu".into() });
-                0.75
-            }
-        };
-        let fpj = jacking * fpu;
-        if fpj > jack_limit * (1.0 + 1e-12) {
-            cx.warn(
-                "jacking",
-                format!(
-                    "jacking = {} gives fpj = {}, above the limit {} = {} of {}",
-                    num(jacking),
-                    cx.shown(Dim::Stress, fpj),
-                    cx.basis.jacking_limit_text(),
-                    cx.shown(Dim::Stress, jack_limit),
-                    cx.basis.cite(Clause::JackingLimit)
-                ),
-            );
-        }
-        let losses = cx.quantity("losses", &s.losses, Dim::Stress)?;
-        if !(0.0..fpj).contains(&losses) {
-            cx.problem(
-                "losses",
-                format!("losses = {} is out of range", cx.shown(Dim::Stress, losses)),
-                Some(format!("0 <= losses < fpj = {}", cx.shown(Dim::Stress, fpj))),
-            );
-            return None;
-        }
-        (fpj - losses, FseSource::Losses { jacking, fpj, losses })
-    };
-    let debonded_length = match &s.debonded_length {
-        Some(_) => {
-            let limit = length.map_or(ranges(sys).length_max, |l| l / 2.0);
-            cx.ranged("debonded_length", &s.debonded_length, Dim::Length, 0.0, limit, false)?
-        }
-        None => 0.0,
-    };
-    // inside the concrete, at every level the layer takes
-    let levels: Vec<(f64, &'static str)> = match profile {
-        Profile::Straight { depth } => vec![(depth, if s.height.is_some() { "height" } else { "depth" })],
-        Profile::Harped { depth_end, depth_harp, .. } => {
-            let (a, b) =
-                if s.depth_end.is_some() { ("depth_end", "depth_harp") } else { ("height_end", "height_harp") };
-            vec![(depth_end, a), (depth_harp, b)]
-        }
-    };
-    for (d, key) in levels {
-        if !check_inside(cx, key, region, d, count, diameter) {
-            return None;
-        }
+        return Some((v, FseSource::Given));
     }
-    Some(StrandLayer { profile, count, diameter, area, size, fpu, fpy, grade, model, fse, fse_source, debonded_length })
+    let jacking = match s.jacking {
+        Some(j) => cx.ratio("jacking", Some(j), 0.5, 0.85)?,
+        None => {
+            defaults.push(Default { key: "strands.jacking".into(), text: "jacking stress fpj = 0.75 fpu".into() });
+            0.75
+        }
+    };
+    let fpj = jacking * fpu;
+    if fpj > jack_limit * (1.0 + 1e-12) {
+        let message = format!(
+            "jacking = {} gives fpj = {}, above the limit {} = {} of {}",
+            num(jacking),
+            cx.shown(Dim::Stress, fpj),
+            cx.basis.jacking_limit_text(),
+            cx.shown(Dim::Stress, jack_limit),
+            cx.basis.cite(Clause::JackingLimit)
+        );
+        cx.warn("jacking", message);
+    }
+    let losses = stress_below(cx, "losses", &s.losses, fpj, "fpj")?;
+    Some((fpj - losses, FseSource::Losses { jacking, fpj, losses }))
+}
+
+/// A stress from 0 up to, not including, a bound named `bound_name`.
+fn stress_below(cx: &mut Ctx, key: &'static str, q: &Option<Q>, bound: f64, bound_name: &str) -> Option<f64> {
+    let v = cx.quantity(key, q, Dim::Stress)?;
+    if !(0.0..bound).contains(&v) {
+        cx.problem(
+            key,
+            format!("{key} = {} is out of range", cx.shown(Dim::Stress, v)),
+            Some(format!("0 <= {key} < {bound_name} = {}", cx.shown(Dim::Stress, bound))),
+        );
+        return None;
+    }
+    Some(v)
 }
 
 pub(super) fn bar_layer(cx: &mut Ctx, b: &raw::Bars, region: &Region, defaults: &mut Vec<Default>) -> Option<BarLayer> {
@@ -434,67 +465,7 @@ pub(super) fn bar_layer(cx: &mut Ctx, b: &raw::Bars, region: &Region, defaults: 
     };
     let count = cx.count("count", b.count, 1, limits::BARS_PER_LAYER);
     let count = cx.required("count", count, "the number of bars in the layer")?;
-    let (size, diameter, area) = match (&b.size, &b.diameter) {
-        (Some(_), Some(_)) => {
-            cx.problem(
-                "diameter",
-                "size and diameter are both given",
-                Some("a bar size (\"#5\"), or diameter with area".to_string()),
-            );
-            return None;
-        }
-        (Some(name), None) => match catalog::bar(name, sys) {
-            Some(bs) => {
-                if b.area.is_some() {
-                    cx.problem(
-                        "area",
-                        "area is given with size; the size fixes the area",
-                        Some(format!("size alone ({} has {} {})", bs.name, num(bs.area), sys.names().area)),
-                    );
-                    return None;
-                }
-                (Some(bs.name), bs.diameter, bs.area)
-            }
-            None => {
-                let std = match sys {
-                    System::Us => "ASTM A615",
-                    System::Si => "ASTM A615M",
-                };
-                cx.problem("size", format!("size = {name:?} is not a {std} bar size"), Some(catalog::bar_names(sys)));
-                return None;
-            }
-        },
-        (None, Some(_)) => {
-            let d = cx.ranged("diameter", &b.diameter, Dim::Length, 0.0, r.dim_max / 10.0, true)?;
-            let a = cx.required("area", b.area.as_ref(), "the area of one bar (with diameter)").cloned();
-            let a = cx.ranged("area", &a, Dim::Area, 0.0, r.dim_max, true)?;
-            (None, d, a)
-        }
-        (None, None) if b.area.is_some() => {
-            // area alone: the drawing and the fit check use the round bar of that area
-            let a = cx.ranged("area", &b.area, Dim::Area, 0.0, r.dim_max, true)?;
-            let d = (4.0 * a / std::f64::consts::PI).sqrt();
-            defaults.push(Default {
-                key: "bars.diameter".into(),
-                text: format!(
-                    "a bar layer given by its area alone ({} {}) is drawn and placed as the round bar of that area, diameter √(4A/π) = {} {}",
-                    num(a),
-                    sys.names().area,
-                    crate::trace::show(d),
-                    sys.names().length
-                ),
-            });
-            (None, d, a)
-        }
-        (None, None) => {
-            cx.problem(
-                "size",
-                "size is missing",
-                Some(format!("a bar size: {}; diameter with area; or area alone", catalog::bar_names(sys))),
-            );
-            return None;
-        }
-    };
+    let (size, diameter, area) = bar_size(cx, b, defaults)?;
     let fy = match &b.fy {
         Some(_) => cx.ranged("fy", &b.fy, Dim::Stress, r.fy.0, r.fy.1, false)?,
         None => {
@@ -518,4 +489,73 @@ pub(super) fn bar_layer(cx: &mut Ctx, b: &raw::Bars, region: &Region, defaults: 
         return None;
     }
     Some(BarLayer { depth, count, size, diameter, area, fy, es })
+}
+
+/// A bar's size: a bar size of the catalogue, a diameter with its area, or an area alone
+/// (drawn and placed as the round bar of that area). Returns the size's name, the
+/// diameter and the area.
+fn bar_size(cx: &mut Ctx, b: &raw::Bars, defaults: &mut Vec<Default>) -> Option<(Option<&'static str>, f64, f64)> {
+    let sys = cx.sys;
+    let r = ranges(sys);
+    match (&b.size, &b.diameter) {
+        (Some(_), Some(_)) => {
+            cx.problem(
+                "diameter",
+                "size and diameter are both given",
+                Some("a bar size (\"#5\"), or diameter with area".to_string()),
+            );
+            None
+        }
+        (Some(name), None) => match catalog::bar(name, sys) {
+            Some(bs) => {
+                if b.area.is_some() {
+                    cx.problem(
+                        "area",
+                        "area is given with size; the size fixes the area",
+                        Some(format!("size alone ({} has {} {})", bs.name, num(bs.area), sys.names().area)),
+                    );
+                    return None;
+                }
+                Some((Some(bs.name), bs.diameter, bs.area))
+            }
+            None => {
+                let std = match sys {
+                    System::Us => "ASTM A615",
+                    System::Si => "ASTM A615M",
+                };
+                cx.problem("size", format!("size = {name:?} is not a {std} bar size"), Some(catalog::bar_names(sys)));
+                None
+            }
+        },
+        (None, Some(_)) => {
+            let d = cx.ranged("diameter", &b.diameter, Dim::Length, 0.0, r.dim_max / 10.0, true)?;
+            let a = cx.required("area", b.area.as_ref(), "the area of one bar (with diameter)").cloned();
+            let a = cx.ranged("area", &a, Dim::Area, 0.0, r.dim_max, true)?;
+            Some((None, d, a))
+        }
+        (None, None) if b.area.is_some() => {
+            // area alone: the drawing and the fit check use the round bar of that area
+            let a = cx.ranged("area", &b.area, Dim::Area, 0.0, r.dim_max, true)?;
+            let d = (4.0 * a / std::f64::consts::PI).sqrt();
+            defaults.push(Default {
+                key: "bars.diameter".into(),
+                text: format!(
+                    "a bar layer given by its area alone ({} {}) is drawn and placed as the round bar of that area, diameter √(4A/π) = {} {}",
+                    num(a),
+                    sys.names().area,
+                    crate::trace::show(d),
+                    sys.names().length
+                ),
+            });
+            Some((None, d, a))
+        }
+        (None, None) => {
+            cx.problem(
+                "size",
+                "size is missing",
+                Some(format!("a bar size: {}; diameter with area; or area alone", catalog::bar_names(sys))),
+            );
+            None
+        }
+    }
 }
