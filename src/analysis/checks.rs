@@ -41,7 +41,6 @@ pub(super) fn transfer(
     let (d1, _) = p.basis.development_divisors();
     let ltr = s.fse / d1 * s.diameter;
     let x_bond = xe - s.debonded_length;
-    tr.rec(|| transfer_length_step(p, li, k, s, d1, ltr));
     if s.debonded_length > 0.0 {
         tr.rec(|| bonded_length_step(li, k, s, end, xe, x_bond));
     }
@@ -75,18 +74,27 @@ pub(super) fn transfer(
     (fse_here, active, Some(dev))
 }
 
-fn transfer_length_step(p: &Prepared, li: usize, k: usize, s: &StrandLayer, d1: f64, ltr: f64) -> Step {
-    layer_step("development", li, "dev.ltr", k, "Transfer length", sym_k("ell", "\"tr\"", "ltr", k))
-        .formula(mul(vec![div(v(0), n(d1)), v(1)]))
-        .input(sym_k("f", "\"se\"", "fse", k), s.fse, Unit::Stress)
-        .input(s_db(), s.diameter, Unit::Length)
-        .result(ltr, Unit::Length)
-        .clause(p.basis.cite(Clause::TransferLength))
-        .note(match p.sys {
-            _ if s.fse == 0.0 => "untensioned strand: no prestress to transfer",
-            System::Us => "fse in ksi (fse/3000 with psi)",
-            System::Si => "fse in MPa",
-        })
+/// A layer's transfer length, once for the member (its sections use it from the nearer
+/// end, past any debonding).
+pub(super) fn transfer_length_step(p: &Prepared, k: usize, s: &StrandLayer) -> Step {
+    let (d1, _) = p.basis.development_divisors();
+    let ltr = s.fse / d1 * s.diameter;
+    Step::new(
+        "prestress",
+        format!("prestress.ltr.{k}"),
+        format!("Transfer length, layer {k}"),
+        sym_k("ell", "\"tr\"", "ltr", k),
+    )
+    .formula(mul(vec![div(v(0), n(d1)), v(1)]))
+    .input(sym_k("f", "\"se\"", "fse", k), s.fse, Unit::Stress)
+    .input(s_db(), s.diameter, Unit::Length)
+    .result(ltr, Unit::Length)
+    .clause(p.basis.cite(Clause::TransferLength))
+    .note(match p.sys {
+        _ if s.fse == 0.0 => "untensioned strand: no prestress to transfer",
+        System::Us => "fse in ksi (fse/3000 with psi)",
+        System::Si => "fse in MPa",
+    })
 }
 
 fn bonded_length_step(li: usize, k: usize, s: &StrandLayer, end: End, xe: f64, x_bond: f64) -> Step {

@@ -139,6 +139,7 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
     let mut tr = Trace::new(trace);
     let p = prepare(m, basis, &mut tr)?;
     let demand = demand::of_member(&p, m, &mut tr);
+    prestress::record_member(&p, &mut tr);
     let mut sites = Vec::with_capacity(m.locations.len() + 3);
     for l in &m.locations {
         let site = station::Station::of_location(l, demand.as_ref()).ok_or_else(|| crate::error::Error::Analysis {

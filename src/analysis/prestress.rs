@@ -154,32 +154,50 @@ pub(super) fn at_location(p: &Prepared, li: usize, loc: &Station, tr: &mut Trace
     Prestress { at, pe, e }
 }
 
-/// A layer's prestress steps: the jacking stress (where losses are given), fse, fse at
-/// x where less is transferred there, and eps1.
+/// The member's prestress, once for all its sections: each layer's jacking stress
+/// (where losses are given), its effective prestress fse and, for a member whose length
+/// is given, its transfer length.
+pub(super) fn record_member(p: &Prepared, tr: &mut Trace) {
+    for (i, s) in p.m.strands.iter().enumerate() {
+        let k = i + 1;
+        let id = |what: &str| format!("prestress.{what}.{k}");
+        if let FseSource::Losses { jacking, fpj, .. } = s.fse_source {
+            tr.rec(|| {
+                Step::new("prestress", id("fpj"), format!("Jacking stress, layer {k}"), sym_k("f", "\"pj\"", "fpj", k))
+                    .formula(mul(vec![v(0), v(1)]))
+                    .input(sy("f_\"pj\" / f_\"pu\"", "fpj/fpu"), jacking, Unit::Ratio)
+                    .input(sy("f_\"pu\"", "fpu"), s.fpu, Unit::Stress)
+                    .result(fpj, Unit::Stress)
+                    .clause(format!("{} (limit {})", p.basis.cite(Clause::JackingLimit), p.basis.jacking_limit_text()))
+            });
+        }
+        tr.rec(|| {
+            let st = Step::new(
+                "prestress",
+                id("fse"),
+                format!("Effective prestress, layer {k}"),
+                sym_k("f", "\"se\"", "fse", k),
+            );
+            match s.fse_source {
+                FseSource::Given => st.result(s.fse, Unit::Stress).note("given in the input"),
+                FseSource::Losses { fpj, losses, .. } => st
+                    .formula(sub(v(0), v(1)))
+                    .input(sym_k("f", "\"pj\"", "fpj", k), fpj, Unit::Stress)
+                    .input(sym_k("Delta f", "p", "Δfp", k), losses, Unit::Stress)
+                    .result(s.fse, Unit::Stress)
+                    .note("jacking stress less the given losses"),
+            }
+        });
+        if p.m.length.is_some() {
+            tr.rec(|| checks::transfer_length_step(p, k, s));
+        }
+    }
+}
+
+/// A layer's prestress steps at a location: fse at x where less is transferred there,
+/// and eps1 (fse itself is the member's).
 fn record_layer(p: &Prepared, li: usize, i: usize, s: &StrandLayer, a: &StrandAt, tr: &mut Trace) {
     let k = i + 1;
-    if let FseSource::Losses { jacking, fpj, .. } = s.fse_source {
-        tr.rec(|| {
-            layer_step("prestress", li, "prestress.fpj", k, "Jacking stress", sym_k("f", "\"pj\"", "fpj", k))
-                .formula(mul(vec![v(0), v(1)]))
-                .input(sy("f_\"pj\" / f_\"pu\"", "fpj/fpu"), jacking, Unit::Ratio)
-                .input(sy("f_\"pu\"", "fpu"), s.fpu, Unit::Stress)
-                .result(fpj, Unit::Stress)
-                .clause(format!("{} (limit {})", p.basis.cite(Clause::JackingLimit), p.basis.jacking_limit_text()))
-        });
-    }
-    tr.rec(|| {
-        let st = layer_step("prestress", li, "prestress.fse", k, "Effective prestress", sym_k("f", "\"se\"", "fse", k));
-        match s.fse_source {
-            FseSource::Given => st.result(s.fse, Unit::Stress).note("given in the input"),
-            FseSource::Losses { fpj, losses, .. } => st
-                .formula(sub(v(0), v(1)))
-                .input(sym_k("f", "\"pj\"", "fpj", k), fpj, Unit::Stress)
-                .input(sym_k("Delta f", "p", "Δfp", k), losses, Unit::Stress)
-                .result(s.fse, Unit::Stress)
-                .note("jacking stress less the given losses"),
-        }
-    });
     let reduced = a.fse != s.fse;
     if reduced {
         tr.rec(|| fse_at_x_step(li, k, s, a));
