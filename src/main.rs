@@ -441,7 +441,7 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 })?,
                 None => r.governing,
             };
-            let c = analysis::curve::moment_curvature(m, pkg.basis(), &r.sites[li], li)?;
+            let c = analysis::curve::moment_curvature(r.member(m), pkg.basis(), &r.sites[li], li)?;
             match format {
                 CurveFormat::Json => {
                     let v = present::curve_json(&pkg, &c, &r.locations[li]);

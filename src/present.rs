@@ -119,6 +119,11 @@ struct MemberJson<'a> {
     /// Members with loads: every station along the span, in order of x.
     #[serde(skip_serializing_if = "Vec::is_empty")]
     stations: Vec<StationJson<'a>>,
+    /// Each strand layer's prestress: its source, fpj, losses, fse and fpi.
+    prestress: &'a [crate::analysis::LayerPrestress],
+    /// The loss computation, where a layer's losses are computed.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    losses: Option<&'a crate::analysis::losses::Losses>,
 }
 
 #[derive(Serialize)]
@@ -206,6 +211,8 @@ fn member_json(m: &MemberResult) -> MemberJson<'_> {
         top: location_json(m.governing(), true),
         locations: m.locations.iter().map(|l| location_json(l, false)).collect(),
         stations: m.stations.iter().map(|s| station_json(m, s)).collect(),
+        prestress: &m.prestress,
+        losses: m.losses.as_ref(),
     }
 }
 

@@ -383,7 +383,7 @@ pub(super) fn record_at(d: &Demand, p: &Prepared, tag: &str, at: &MomentsAt, tr:
 /// The moment of a uniform load over the whole member at x, for a step whose input 0 is
 /// w: between the bearings w/2 (x'(S - x') - a²) with x' = x - a; over an overhang
 /// -w xo²/2, xo from the nearer end. Adds the step's inputs and gives the term.
-fn uniform_term(st: Step, d: &Demand, x: f64, sys: System) -> (Step, Expr) {
+pub(super) fn uniform_term(st: Step, d: &Demand, x: f64, sys: System) -> (Step, Expr) {
     let (a, b) = d.bearings();
     if x >= a && x <= b {
         let st = st.input(sy("x", "x"), x, Unit::Length).input(sy("a", "a"), a, Unit::Length).input(

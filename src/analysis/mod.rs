@@ -21,6 +21,7 @@ pub mod conclusion;
 pub mod curve;
 pub mod demand;
 mod location;
+pub mod losses;
 mod prepare;
 mod prestress;
 pub mod results;
@@ -78,7 +79,8 @@ pub fn analyze(pkg: &Package, trace: bool) -> Result<Analysis> {
 pub fn analyze_full(pkg: &Package) -> Result<Analysis> {
     let mut a = analyze(pkg, true)?;
     a.members.par_iter_mut().zip(pkg.members.par_iter()).for_each(|(r, m)| {
-        match curve::moment_curvature(m, pkg.basis(), &r.sites[r.governing], r.governing) {
+        let curve = curve::moment_curvature(r.member(m), pkg.basis(), &r.sites[r.governing], r.governing);
+        match curve {
             Ok(c) => r.curve = Some(c),
             Err(e) => r.curve_error = Some(e.to_string()),
         }
@@ -135,10 +137,31 @@ fn sym_k(base: &'static str, sub: &'static str, plain: &'static str, k: usize) -
 /// each station along the span (a table row) and each section derived in full (the
 /// named locations, the governing station and the critical station of each end region).
 pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Result<MemberResult> {
+    // computed losses first: they fill in the fse of their layers, which everything
+    // after them reads (the member with those filled in is the one analysed)
+    let mut lt = Trace::new(trace);
+    let computed = match m.computes_losses() {
+        true => {
+            let p0 = prepare(m, basis, &mut Trace::new(false))?;
+            let d0 =
+                demand::of_member(&p0, m, &mut Trace::new(false)).ok_or_else(|| crate::error::Error::Analysis {
+                    member: m.id.clone(),
+                    location: String::new(),
+                    message: "computed losses need the member's loads".into(),
+                })?;
+            Some(losses::compute(&p0, &d0, &mut lt)?)
+        }
+        false => None,
+    };
+    let (m, losses) = match &computed {
+        Some((effective, l)) => (effective, Some(l.clone())),
+        None => (m, None),
+    };
     let sys = basis.units();
     let mut tr = Trace::new(trace);
     let p = prepare(m, basis, &mut tr)?;
     let demand = demand::of_member(&p, m, &mut tr);
+    tr.steps.append(&mut lt.steps);
     prestress::record_member(&p, &mut tr);
     let mut sites = Vec::with_capacity(m.locations.len() + 3);
     for l in &m.locations {
@@ -216,7 +239,48 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
         demand,
         stations,
         sites,
+        prestress: prestress_of(m, losses.as_ref()),
+        losses,
+        member: computed.map(|(effective, _)| Box::new(effective)),
     })
+}
+
+/// Each layer's prestress as the package and the JSON report it: where it comes from,
+/// fpj, the losses, fse and (computed) the stress just after release.
+fn prestress_of(m: &Member, losses: Option<&losses::Losses>) -> Vec<LayerPrestress> {
+    use crate::input::model::FseSource;
+    m.strands
+        .iter()
+        .enumerate()
+        .map(|(i, s)| {
+            let computed = losses.and_then(|l| l.layers.iter().find(|x| x.layer == i + 1));
+            match (s.fse_source, computed) {
+                (FseSource::Computed { fpj, .. }, Some(c)) => LayerPrestress {
+                    layer: i + 1,
+                    source: "computed",
+                    fpj: Some(fpj),
+                    fse: s.fse,
+                    fpi: Some(c.fpi),
+                    losses: Some(LossesOut {
+                        total: c.total,
+                        es: Some(c.es),
+                        cr: Some(c.cr),
+                        sh: Some(c.sh),
+                        re: Some(c.re),
+                    }),
+                },
+                (FseSource::Losses { fpj, losses, .. }, _) => LayerPrestress {
+                    layer: i + 1,
+                    source: "losses_given",
+                    fpj: Some(fpj),
+                    fse: s.fse,
+                    fpi: None,
+                    losses: Some(LossesOut { total: losses, es: None, cr: None, sh: None, re: None }),
+                },
+                _ => LayerPrestress { layer: i + 1, source: "given", fpj: None, fse: s.fse, fpi: None, losses: None },
+            }
+        })
+        .collect()
 }
 
 /// Settles a section's words, asking its moment-curvature curve where strand is strained

@@ -171,23 +171,28 @@ pub(super) fn record_member(p: &Prepared, tr: &mut Trace) {
                     .clause(format!("{} (limit {})", p.basis.cite(Clause::JackingLimit), p.basis.jacking_limit_text()))
             });
         }
-        tr.rec(|| {
-            let st = Step::new(
-                "prestress",
-                id("fse"),
-                format!("Effective prestress, layer {k}"),
-                sym_k("f", "\"se\"", "fse", k),
-            );
-            match s.fse_source {
-                FseSource::Given => st.result(s.fse, Unit::Stress).note("given in the input"),
-                FseSource::Losses { fpj, losses, .. } => st
-                    .formula(sub(v(0), v(1)))
-                    .input(sym_k("f", "\"pj\"", "fpj", k), fpj, Unit::Stress)
-                    .input(sym_k("Delta f", "p", "Δfp", k), losses, Unit::Stress)
-                    .result(s.fse, Unit::Stress)
-                    .note("jacking stress less the given losses"),
-            }
-        });
+        let computed = matches!(s.fse_source, FseSource::Computed { .. });
+        if !computed {
+            tr.rec(|| {
+                let st = Step::new(
+                    "prestress",
+                    id("fse"),
+                    format!("Effective prestress, layer {k}"),
+                    sym_k("f", "\"se\"", "fse", k),
+                );
+                match s.fse_source {
+                    FseSource::Given => st.result(s.fse, Unit::Stress).note("given in the input"),
+                    FseSource::Losses { fpj, losses, .. } => st
+                        .formula(sub(v(0), v(1)))
+                        .input(sym_k("f", "\"pj\"", "fpj", k), fpj, Unit::Stress)
+                        .input(sym_k("Delta f", "p", "Δfp", k), losses, Unit::Stress)
+                        .result(s.fse, Unit::Stress)
+                        .note("jacking stress less the given losses"),
+                    // not recorded here: the computed losses record fse with their steps
+                    FseSource::Computed { .. } => st.result(s.fse, Unit::Stress),
+                }
+            });
+        }
         if p.m.length.is_some() {
             tr.rec(|| checks::transfer_length_step(p, k, s));
         }

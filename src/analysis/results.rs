@@ -262,6 +262,14 @@ pub struct MemberResult {
     /// The sections derived in full, with their demand, in the order of `locations`.
     #[serde(skip)]
     pub sites: Vec<super::station::Station>,
+    /// Each strand layer's prestress.
+    pub prestress: Vec<LayerPrestress>,
+    /// The loss computation, where a layer takes computed losses.
+    pub losses: Option<super::losses::Losses>,
+    /// The member as analysed, where computed losses filled in a layer's fse (see
+    /// `member()`).
+    #[serde(skip)]
+    pub member: Option<Box<crate::input::model::Member>>,
 }
 
 /// One station along the span: its demand and its design strength (shown units).
@@ -302,6 +310,38 @@ impl MemberResult {
     pub fn governing(&self) -> &LocationResult {
         &self.locations[self.governing]
     }
+    /// The member as analysed: the input's, with the fse of layers that take computed
+    /// losses filled in.
+    pub fn member<'a>(&'a self, given: &'a crate::input::model::Member) -> &'a crate::input::model::Member {
+        self.member.as_deref().unwrap_or(given)
+    }
+}
+
+/// A strand layer's prestress: where it comes from, fpj, the losses, fse, and the
+/// stress just after release where the losses are computed.
+#[derive(Debug, Clone, Serialize)]
+pub struct LayerPrestress {
+    pub layer: usize,
+    /// "given" (fse), "losses_given" or "computed".
+    pub source: &'static str,
+    pub fpj: Option<f64>,
+    pub fse: f64,
+    pub fpi: Option<f64>,
+    pub losses: Option<LossesOut>,
+}
+
+/// Losses of a layer: the total, and each part where computed.
+#[derive(Debug, Clone, Serialize)]
+pub struct LossesOut {
+    pub total: f64,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub es: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub cr: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub sh: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub re: Option<f64>,
 }
 
 #[derive(Debug, Clone, Serialize)]

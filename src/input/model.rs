@@ -229,6 +229,29 @@ pub enum FseSource {
         fpj: f64,
         losses: f64,
     },
+    /// fse = jacking fpu less the losses computed by the member's method (the layer's
+    /// fse is not a number until the analysis has computed them).
+    Computed {
+        jacking: f64,
+        fpj: f64,
+    },
+}
+
+/// The concrete at release (transfer of prestress).
+#[derive(Debug, Clone, Copy, Serialize)]
+pub struct Release {
+    pub fci: f64,
+    pub eci: f64,
+    pub eci_source: EcSource,
+}
+
+/// The method of computed losses and what it asks of the member.
+#[derive(Debug, Clone, Copy, Serialize)]
+pub struct LossMethod {
+    /// Average annual ambient relative humidity, percent.
+    pub relative_humidity: f64,
+    /// Volume to surface ratio, where given (else from the section: area / perimeter).
+    pub volume_to_surface: Option<f64>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -407,9 +430,17 @@ pub struct Member {
     pub bars: Vec<BarLayer>,
     pub curve: CurveOptions,
     pub defaults: Vec<Default>,
+    /// The concrete at release, where f'ci is given.
+    pub release: Option<Release>,
+    /// The loss method, where a layer takes computed losses.
+    pub losses: Option<LossMethod>,
 }
 
 impl Member {
+    /// Whether any strand layer takes computed losses.
+    pub fn computes_losses(&self) -> bool {
+        self.strands.iter().any(|s| matches!(s.fse_source, FseSource::Computed { .. }))
+    }
     /// Height of the precast unit.
     pub fn precast_height(&self) -> f64 {
         self.region.y_top() - self.region.y_bot()

@@ -107,6 +107,7 @@ pub struct Member {
     #[serde(default)]
     pub bars: Vec<Bars>,
     pub curve: Option<CurveOptions>,
+    pub losses: Option<Losses>,
 }
 
 /// Service loads on a member: area loads ("20 psf", "1.0 kPa") times the tributary
@@ -151,6 +152,18 @@ pub struct Concrete {
     pub lambda: Option<f64>,
     pub fr: Option<Q>,
     pub curve: Option<String>,
+    /// f'ci at release (transfer of prestress), and optionally its Eci.
+    pub fci: Option<Q>,
+    pub eci: Option<Q>,
+}
+
+/// How the losses of strand layers that give `jacking` alone are computed.
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Losses {
+    pub method: Option<String>,
+    pub relative_humidity: Option<f64>,
+    pub volume_to_surface: Option<Q>,
 }
 
 /// The section, by shape: each shape takes its own dimensions (and a key of another

@@ -173,8 +173,11 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     if with_loads && loads.is_none() {
         return None;
     }
+    let release = losses::release(cx, m, concrete.as_ref(), &mut defaults);
     let region = region?;
     let (strands, bars) = steel(cx, m, &region, length, &mut defaults)?;
+    let release = release?;
+    let losses = losses::method(cx, m, &strands, release.as_ref(), loads.is_some())?;
     let curve = curve_options(cx, m)?;
     // dedup defaults (several layers may take the same one)
     let mut seen: Vec<Default> = Vec::new();
@@ -199,6 +202,8 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
         bars,
         curve,
         defaults: seen,
+        release,
+        losses,
     })
 }
 
@@ -398,7 +403,9 @@ fn steel(
         cx.leave();
         cx.leave();
     }
-    if !strands.is_empty() && strands.iter().all(|s| s.fse == 0.0) {
+    if !strands.is_empty()
+        && strands.iter().all(|s| s.fse == 0.0 && !matches!(s.fse_source, FseSource::Computed { .. }))
+    {
         cx.warn("strands", "no strand layer is tensioned (every fse is 0)");
     }
     let mut bars = Vec::new();

@@ -4,6 +4,7 @@
 
 mod concrete;
 mod loads;
+mod losses;
 mod member;
 mod meta;
 mod shape;

@@ -389,6 +389,9 @@ fn strand_prestress(
     defaults: &mut Vec<Default>,
 ) -> Option<(f64, FseSource)> {
     let jack_limit = cx.basis.jacking_limit(fpu, fpy);
+    if s.fse.is_none() && s.losses.is_none() && s.jacking.is_some() {
+        return computed_prestress(cx, s.jacking, fpu, jack_limit);
+    }
     let how = exclusive(
         cx,
         &[("fse", s.fse.is_some()), ("losses", s.losses.is_some())],
@@ -420,6 +423,33 @@ fn strand_prestress(
         }
     };
     let fpj = jacking * fpu;
+    warn_above_jacking_limit(cx, jacking, fpj, jack_limit);
+    let losses = stress_below(cx, "losses", &s.losses, fpj, "fpj")?;
+    Some((fpj - losses, FseSource::Losses { jacking, fpj, losses }))
+}
+
+/// A layer that gives `jacking` alone: its losses are computed by the member's method,
+/// whose relaxation factor C is tabulated for fpj/fpu from 0.60 to 0.80.
+fn computed_prestress(cx: &mut Ctx, jacking: Option<f64>, fpu: f64, jack_limit: f64) -> Option<(f64, FseSource)> {
+    let j = jacking?;
+    if !(0.60..=0.80).contains(&j) {
+        cx.problem(
+            "jacking",
+            format!(
+                "jacking = {} with neither fse nor losses asks for computed losses, whose relaxation factor C is tabulated for fpj/fpu from 0.60 to 0.80 only",
+                num(j)
+            ),
+            Some("0.60 <= jacking <= 0.80, or give fse or losses".to_string()),
+        );
+        return None;
+    }
+    let fpj = j * fpu;
+    warn_above_jacking_limit(cx, j, fpj, jack_limit);
+    Some((f64::NAN, FseSource::Computed { jacking: j, fpj }))
+}
+
+/// A jacking stress above the basis's limit is warned of (the input stands).
+fn warn_above_jacking_limit(cx: &mut Ctx, jacking: f64, fpj: f64, jack_limit: f64) {
     if fpj > jack_limit * (1.0 + 1e-12) {
         let message = format!(
             "jacking = {} gives fpj = {}, above the limit {} = {} of {}",
@@ -431,8 +461,6 @@ fn strand_prestress(
         );
         cx.warn("jacking", message);
     }
-    let losses = stress_below(cx, "losses", &s.losses, fpj, "fpj")?;
-    Some((fpj - losses, FseSource::Losses { jacking, fpj, losses }))
 }
 
 /// A stress from 0 up to, not including, a bound named `bound_name`.

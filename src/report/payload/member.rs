@@ -48,6 +48,8 @@ pub struct MemberShown<'a> {
     pub defaults: &'a [Default],
     /// The input summary: a label and a value a row.
     pub input_rows: Vec<(&'static str, String)>,
+    /// Where the losses are computed ("240.0 in"), for a member that computes them.
+    pub losses_x: Option<String>,
     /// A polygon's outline and holes as given (y upward), so that a checker can
     /// recompute A, yb and I; empty for a built-in shape, whose dimensions are rows.
     pub vertices: Vec<Ring>,
@@ -109,6 +111,8 @@ pub struct BarRow {
 
 /// A member as the payload holds it.
 pub fn member<'a>(m: &'a MemberResult, input: &'a Member, basis: &dyn Basis) -> MemberPayload<'a> {
+    // as analysed: computed losses fill in their layers' fse
+    let input = m.member(input);
     let sys = basis.units();
     let u = sys.names();
     let length = |v: f64| format!("{} {}", printed(v), u.length);
@@ -128,6 +132,7 @@ pub fn member<'a>(m: &'a MemberResult, input: &'a Member, basis: &dyn Basis) -> 
         },
         defaults: &input.defaults,
         input_rows: input_rows(input, basis),
+        losses_x: m.losses.as_ref().map(|l| length(l.x)),
         vertices: vertices(&input.shape),
         strands: input.strands.iter().enumerate().map(|(i, s)| strand_row(i, s, input, u)).collect(),
         bars: input.bars.iter().enumerate().map(|(i, b)| bar_row(i, b)).collect(),

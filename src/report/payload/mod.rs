@@ -124,6 +124,10 @@ pub struct PackageShown {
     pub demand_given: Vec<String>,
     /// Members with a hogging moment over an overhang (shown, not checked).
     pub hogging: Vec<String>,
+    /// Members with a layer whose losses are computed, and members with a layer whose
+    /// fse or losses are given.
+    pub losses_computed: Vec<String>,
+    pub losses_given: Vec<String>,
 }
 
 #[derive(Serialize, Deserialize, Clone)]
@@ -273,6 +277,8 @@ fn package_shown(meta: &Meta, a: &Analysis) -> PackageShown {
         demand_derived: ids(&|m| m.demand.is_some()),
         demand_given: ids(&|m| m.locations.iter().any(|l| l.demand_from_loads.is_none())),
         hogging: ids(&|m| m.demand.as_ref().is_some_and(|d| d.hogging > 0.0)),
+        losses_computed: ids(&|m| m.prestress.iter().any(|l| l.source == "computed")),
+        losses_given: ids(&|m| m.prestress.iter().any(|l| l.source != "computed")),
         title: meta.title.clone(),
         project: meta.project.clone(),
         project_number: meta.project_number.clone(),

@@ -1,0 +1,466 @@
+//! Prestress losses computed by the method of Zia et al. (1979), as given in the PCI
+//! Design Handbook, for the strand layers that give their jacking stress alone. Once
+//! per member, at the middle of its length (the section of the largest self-weight
+//! moment of a member whose bearings sit alike at both ends): elastic shortening,
+//! creep, shrinkage and relaxation, each a recorded step; then each layer's fse (used
+//! by strength at every section) and its stress just after release, fpi.
+//!
+//! The coefficients are the method's for pretensioned members; the values of its tables
+//! (Kre, J, C) are recalled from memory and say so where they are shown.
+
+use super::demand::Demand;
+use super::prepare::Prepared;
+use super::{sy, sym_k};
+use crate::basis::Clause;
+use crate::error::{Error, Result};
+use crate::input::model::{Along, EcSource, FseSource, LoadKind, Member};
+use crate::material::strand::Grade;
+use crate::trace::{Step, Symbol, Trace, Unit, f::*};
+use crate::units::System;
+use serde::Serialize;
+
+/// The method's name, as cited beside each step.
+pub const SOURCE: &str = "Zia et al. (1979), as given in the PCI Design Handbook";
+/// Kes, pretensioned members.
+const KES: f64 = 1.0;
+/// Kcir, pretensioned members.
+const KCIR: f64 = 0.9;
+/// Ksh, pretensioned members.
+const KSH: f64 = 1.0;
+
+/// The relaxation factor C of low-relaxation strand by fpi/fpu (the method's table,
+/// from memory): 0.60 to 0.80 by 0.01.
+const C_TABLE: [f64; 21] = [
+    0.33, 0.37, 0.41, 0.45, 0.49, 0.53, 0.57, 0.61, 0.66, 0.70, 0.75, 0.80, 0.85, 0.90, 0.95, 1.00, 1.05, 1.11, 1.16,
+    1.22, 1.28,
+];
+
+/// C at fpi/fpu = r, by linear interpolation in the table (r within 0.60 to 0.80, as
+/// the input's validation holds).
+pub fn relaxation_c(r: f64) -> f64 {
+    let t = ((r - 0.60) / 0.01).clamp(0.0, 20.0);
+    let i = (t.floor() as usize).min(19);
+    C_TABLE[i] + (C_TABLE[i + 1] - C_TABLE[i]) * (t - i as f64)
+}
+
+/// Kre (in the package's stress unit) and J of low-relaxation strand of a grade (the
+/// method's table, from memory: 5000 psi and 0.040 for Grade 270, 4630 psi and 0.037
+/// for Grade 250; 34.5 and 31.9 MPa).
+pub fn kre_j(grade: Grade, sys: System) -> (f64, f64) {
+    match (grade, sys) {
+        (Grade::G270, System::Us) => (5.0, 0.040),
+        (Grade::G250, System::Us) => (4.63, 0.037),
+        (Grade::G270, System::Si) => (34.5, 0.040),
+        (Grade::G250, System::Si) => (31.9, 0.037),
+    }
+}
+
+/// One layer's computed losses, in the package's stress unit.
+#[derive(Debug, Clone, Serialize)]
+pub struct LayerLosses {
+    pub layer: usize,
+    pub fpj: f64,
+    pub es: f64,
+    pub cr: f64,
+    pub sh: f64,
+    /// The relaxation factor C.
+    pub c: f64,
+    pub re: f64,
+    pub total: f64,
+    pub fse: f64,
+    /// The stress just after release: fpj less elastic shortening.
+    pub fpi: f64,
+}
+
+/// The member's loss computation (shown units: stress, force, moment, length).
+#[derive(Debug, Clone, Serialize)]
+pub struct Losses {
+    pub method: &'static str,
+    /// The section the losses are computed at, from the left end.
+    pub x: f64,
+    pub eci: f64,
+    pub pi: f64,
+    pub e: f64,
+    pub mg: f64,
+    pub fcir: f64,
+    pub fcds: f64,
+    pub volume_to_surface: f64,
+    pub relative_humidity: f64,
+    pub kcr: f64,
+    /// Each computed layer (reported per layer in the member's `prestress`).
+    #[serde(skip)]
+    pub layers: Vec<LayerLosses>,
+}
+
+fn step(id: &str, title: &str, symbol: Symbol) -> Step {
+    Step::new("losses", format!("losses.{id}"), title.to_string(), symbol)
+}
+
+/// The perimeter of the precast section: its outline and its voids.
+fn perimeter(m: &Member) -> f64 {
+    m.region
+        .rings()
+        .map(|ring| {
+            ring.iter().zip(ring.iter().cycle().skip(1)).map(|(a, b)| (b[0] - a[0]).hypot(b[1] - a[1])).sum::<f64>()
+        })
+        .sum()
+}
+
+/// The losses of the member's computed layers, and the member with each such layer's
+/// fse filled in.
+pub(super) fn compute(p: &Prepared, d: &Demand, tr: &mut Trace) -> Result<(Member, Losses)> {
+    let m = p.m;
+    let fail = |message: String| Error::Analysis { member: m.id.clone(), location: String::new(), message };
+    let (Some(rel), Some(method)) = (m.release, m.losses) else {
+        return Err(fail("computed losses need fci and [member.losses] (the input's validation requires both)".into()));
+    };
+    let sys = p.sys;
+    let cv = p.cv;
+    let x = d.length / 2.0;
+    let along = Some(Along { x, length: d.length });
+    record_eci(p, &rel, tr);
+    // the strands at the section: force just before transfer and its eccentricity
+    let layers: Vec<(usize, f64, f64, f64)> = m
+        .strands
+        .iter()
+        .enumerate()
+        .map(|(i, s)| {
+            let fpj = match s.fse_source {
+                FseSource::Computed { fpj, .. } | FseSource::Losses { fpj, .. } => fpj,
+                FseSource::Given => s.fse,
+            };
+            let y = p.top_p - s.profile.depth_at(along);
+            (i, fpj, s.total_area(), p.precast.yc - y)
+        })
+        .collect();
+    let pi: f64 = layers.iter().map(|(_, f, a, _)| f * a).sum();
+    let e = layers.iter().map(|(_, f, a, y)| f * a * y).sum::<f64>() / pi;
+    tr.rec(|| {
+        step("pi", "Prestress force just before release", sy("P_i", "Pi"))
+            .result(pi * cv.kf, Unit::Force)
+            .note("Σ fpj Aps of the layers: the jacking stress, no loss before release taken apart (the method's relaxation is the whole)")
+    });
+    tr.rec(|| {
+        step("e", "Eccentricity of the strands below the precast centroid", sy("e", "e"))
+            .result(e, Unit::Length)
+            .note(format!("at x = {} (the middle of the member's length), weighted by fpj Aps", crate::trace::show(x)))
+    });
+    // moments at the section: self-weight at release, then the dead loads after it
+    let (mut mg, mut m_top, mut m_sd) = (0.0, 0.0, 0.0);
+    for u in d.uniform.iter().filter(|u| u.kind == LoadKind::Dead) {
+        let mx = d.uniform_moment(u.w, x);
+        match (u.source.as_str(), u.precast_only) {
+            ("self-weight", _) => mg += mx,
+            (_, true) => m_top += mx,
+            (_, false) => m_sd += mx,
+        }
+    }
+    tr.rec(|| {
+        let w_sw: f64 = d.uniform.iter().filter(|u| u.source == "self-weight").map(|u| u.w).sum();
+        let st = step("mg", "Self-weight moment at the section", sy("M_g", "Mg")).input(
+            sy("w_\"sw\"", "wsw"),
+            super::demand::line_shown(sys, w_sw),
+            Unit::LineLoad,
+        );
+        let (st, term) = super::demand::uniform_term(st, d, x, sys);
+        st.formula(term)
+            .result(mg * cv.km, Unit::Moment)
+            .note("the self-weight of the precast unit, acting at release; simple span between the bearings")
+    });
+    m_sd += d.points.iter().filter(|q| q.kind == LoadKind::Dead).map(|q| d.point_moment(q.p, q.x, x)).sum::<f64>();
+    let (a, i) = (p.precast.area, p.precast.i);
+    let fcir = KCIR * (pi / a + pi * e * e / i) - mg * e / i;
+    tr.rec(|| fcir_step(p, pi, e, mg, fcir));
+    let (fcds, e_c, i_c) = match &p.composite {
+        Some(c) => {
+            let y = p.precast.yc - e;
+            (m_top * e / i + m_sd * (c.yc - y) / c.i, c.yc - y, c.i)
+        }
+        None => ((m_top + m_sd) * e / i, e, i),
+    };
+    tr.rec(|| fcds_step(p, m_top, m_sd, e, e_c, i_c, fcds));
+    let vs = method.volume_to_surface.unwrap_or(a / perimeter(m));
+    tr.rec(|| match method.volume_to_surface {
+        Some(v) => {
+            step("vs", "Volume to surface ratio", sy("V/S", "V/S")).result(v, Unit::Length).note("given in the input")
+        }
+        None => step("vs", "Volume to surface ratio", sy("V/S", "V/S"))
+            .formula(div(v(0), v(1)))
+            .input(sy("A", "A"), a, Unit::Area)
+            .input(sy("p", "perimeter"), perimeter(m), Unit::Length)
+            .result(vs, Unit::Length)
+            .note("the precast section's area over its perimeter (the outline and any voids), per unit length"),
+    });
+    let kcr = if m.concrete.lambda < 1.0 { 1.6 } else { 2.0 };
+    let rh = method.relative_humidity;
+    let vs_factor = match sys {
+        System::Us => 0.06,
+        System::Si => 0.0024,
+    };
+    let mut out = m.clone();
+    let mut results = Vec::new();
+    for &(i, fpj, _, _) in &layers {
+        let s = &m.strands[i];
+        let FseSource::Computed { jacking, .. } = s.fse_source else { continue };
+        let k = i + 1;
+        let eps = p.curves[i].eps_modulus;
+        let es = KES * eps * fcir / rel.eci;
+        let cr = (kcr * eps / m.concrete.ec * (fcir - fcds)).max(0.0);
+        let sh = (8.2e-6 * KSH * eps * (1.0 - vs_factor * vs) * (100.0 - rh)).max(0.0);
+        let c = relaxation_c(jacking);
+        let (kre, j) = kre_j(s.grade, sys);
+        let re = ((kre - j * (sh + cr + es)) * c).max(0.0);
+        let total = es + cr + sh + re;
+        let fse = fpj - total;
+        let fpi = fpj - es;
+        if fse.is_nan() || fse <= 0.0 {
+            return Err(fail(format!(
+                "strand layer {k}: the computed losses ({} {}) are not less than the jacking stress ({} {})",
+                crate::trace::show(total),
+                sys.names().stress,
+                crate::trace::show(fpj),
+                sys.names().stress
+            )));
+        }
+        let lr = LayerLosses { layer: k, fpj, es, cr, sh, c, re, total, fse, fpi };
+        record_layer(p, s, jacking, &lr, (fcir, fcds, vs, rh, kcr, rel.eci), tr);
+        out.strands[i].fse = fse;
+        results.push(lr);
+    }
+    let losses = Losses {
+        method: "zia-1979",
+        x,
+        eci: rel.eci,
+        pi: pi * cv.kf,
+        e,
+        mg: mg * cv.km,
+        fcir,
+        fcds,
+        volume_to_surface: vs,
+        relative_humidity: rh,
+        kcr,
+        layers: results,
+    };
+    Ok((out, losses))
+}
+
+/// Eci: given, or by the basis's rule for Ec at f'ci.
+fn record_eci(p: &Prepared, rel: &crate::input::model::Release, tr: &mut Trace) {
+    let sym = sy("E_(c i)", "Eci");
+    let title = "Modulus of elasticity at release";
+    let (_, root) = p.basis.fc_root(rel.fci);
+    let fci_sym = match p.sys {
+        System::Us => sy("f'_(c i)", "f'ci [psi]"),
+        System::Si => sy("f'_(c i)", "f'ci"),
+    };
+    tr.rec(|| match rel.eci_source {
+        EcSource::Given => step("eci", title, sym).result(rel.eci, Unit::Stress).note("given in the input"),
+        EcSource::Normalweight => {
+            let b = p.basis.ec_normalweight(rel.fci);
+            step("eci", title, sym)
+                .formula(b.formula)
+                .input(fci_sym, root, Unit::Ratio)
+                .result(rel.eci, Unit::Stress)
+                .clause(p.basis.cite(Clause::EcNormalweight))
+                .note(format!(
+                    "the rule for Ec at f'ci = {} {}; {}",
+                    crate::trace::show(rel.fci),
+                    p.sys.names().stress,
+                    b.note
+                ))
+        }
+        EcSource::Density { wc } => {
+            let b = p.basis.ec_density(rel.fci, wc);
+            step("eci", title, sym)
+                .formula(b.formula)
+                .input(fci_sym, root, Unit::Ratio)
+                .input(sy("w_c", "wc"), wc, Unit::Ratio)
+                .result(rel.eci, Unit::Stress)
+                .clause(p.basis.cite(Clause::EcDensity))
+                .note(format!(
+                    "the rule for Ec at f'ci = {} {}; {}",
+                    crate::trace::show(rel.fci),
+                    p.sys.names().stress,
+                    b.note
+                ))
+        }
+    });
+}
+
+/// fcir = Kcir (Pi/A + Pi e²/I) - Mg e / I, in shown units.
+fn fcir_step(p: &Prepared, pi: f64, e: f64, mg: f64, fcir: f64) -> Step {
+    let cv = p.cv;
+    step("fcir", "Concrete stress at the strands just after release", sy("f_(c i r)", "fcir"))
+        .formula(sub(
+            mul(vec![n(KCIR), add(vec![div(per(v(0), 1.0 / cv.f_div), v(1)), div(mul(vec![per(v(0), 1.0 / cv.f_div), pow(v(2), n(2.0))]), v(3))])]),
+            div(mul(vec![per(v(4), 1.0 / cv.s_div), v(2)]), v(3)),
+        ))
+        .input(sy("P_i", "Pi"), pi * cv.kf, Unit::Force)
+        .input(sy("A", "A"), p.precast.area, Unit::Area)
+        .input(sy("e", "e"), e, Unit::Length)
+        .input(sy("I", "I"), p.precast.i, Unit::Inertia)
+        .input(sy("M_g", "Mg"), mg * cv.km, Unit::Moment)
+        .result(fcir, Unit::Stress)
+        .clause(SOURCE)
+        .note("Kcir = 0.9 for pretensioned members; Mg: the self-weight moment at this section, on the precast section; compression positive")
+}
+
+/// fcds: the dead loads applied after release, at the strands.
+#[allow(clippy::too_many_arguments)]
+fn fcds_step(p: &Prepared, m_top: f64, m_sd: f64, e: f64, e_c: f64, i_c: f64, fcds: f64) -> Step {
+    let cv = p.cv;
+    let st = step("fcds", "Concrete stress at the strands from the dead load after release", sy("f_(c d s)", "fcds"));
+    match &p.composite {
+        Some(_) => st
+            .formula(add(vec![
+                div(mul(vec![per(v(0), 1.0 / cv.s_div), v(1)]), v(2)),
+                div(mul(vec![per(v(3), 1.0 / cv.s_div), v(4)]), v(5)),
+            ]))
+            .input(sy("M_\"top\"", "Mtop"), m_top * cv.km, Unit::Moment)
+            .input(sy("e", "e"), e, Unit::Length)
+            .input(sy("I", "I"), p.precast.i, Unit::Inertia)
+            .input(sy("M_\"sd\"", "Msd"), m_sd * cv.km, Unit::Moment)
+            .input(sy("e_c", "ec"), e_c, Unit::Length)
+            .input(sy("I_c", "Ic"), i_c, Unit::Inertia)
+            .result(fcds, Unit::Stress)
+            .clause(SOURCE)
+            .note("Mtop: the topping's weight on the precast section (0 where shored); Msd: the other dead loads on the composite section, ec the strands' distance below its centroid"),
+        None => st
+            .formula(div(mul(vec![per(add(vec![v(0), v(1)]), 1.0 / cv.s_div), v(2)]), v(3)))
+            .input(sy("M_\"top\"", "Mtop"), m_top * cv.km, Unit::Moment)
+            .input(sy("M_\"sd\"", "Msd"), m_sd * cv.km, Unit::Moment)
+            .input(sy("e", "e"), e, Unit::Length)
+            .input(sy("I", "I"), p.precast.i, Unit::Inertia)
+            .result(fcds, Unit::Stress)
+            .clause(SOURCE)
+            .note("the superimposed dead loads at this section, on the precast section"),
+    }
+}
+
+/// A layer's losses: ES, CR, SH, C, RE, the total, fse and fpi.
+fn record_layer(
+    p: &Prepared,
+    s: &crate::input::model::StrandLayer,
+    jacking: f64,
+    l: &LayerLosses,
+    (fcir, fcds, vs, rh, kcr, eci): (f64, f64, f64, f64, f64, f64),
+    tr: &mut Trace,
+) {
+    let k = l.layer;
+    let eps = p.curves[k - 1].eps_modulus;
+    let id = |what: &str| format!("{what}.{k}");
+    let title = |what: &str| format!("{what}, layer {k}");
+    let eps_sym = || sy("E_\"ps\"", "Eps");
+    tr.rec(|| {
+        Step::new("losses", format!("prestress.fpj.{k}"), title("Jacking stress"), sym_k("f", "\"pj\"", "fpj", k))
+            .formula(mul(vec![v(0), v(1)]))
+            .input(sy("f_\"pj\" / f_\"pu\"", "fpj/fpu"), jacking, Unit::Ratio)
+            .input(sy("f_\"pu\"", "fpu"), s.fpu, Unit::Stress)
+            .result(l.fpj, Unit::Stress)
+            .clause(format!("{} (limit {})", p.basis.cite(Clause::JackingLimit), p.basis.jacking_limit_text()))
+    });
+    tr.rec(|| {
+        step(&id("es"), &title("Elastic shortening"), sym_k("Delta f", "\"ES\"", "ES", k))
+            .formula(div(mul(vec![n(KES), v(0), v(1)]), v(2)))
+            .input(eps_sym(), eps, Unit::Stress)
+            .input(sy("f_(c i r)", "fcir"), fcir, Unit::Stress)
+            .input(sy("E_(c i)", "Eci"), eci, Unit::Stress)
+            .result(l.es, Unit::Stress)
+            .clause(SOURCE)
+            .note("Kes = 1.0 for pretensioned members")
+    });
+    tr.rec(|| {
+        step(&id("cr"), &title("Creep"), sym_k("Delta f", "\"CR\"", "CR", k))
+            .formula(max(vec![mul(vec![n(kcr), div(v(0), v(1)), sub(v(2), v(3))]), n(0.0)]))
+            .input(eps_sym(), eps, Unit::Stress)
+            .input(sy("E_c", "Ec"), p.m.concrete.ec, Unit::Stress)
+            .input(sy("f_(c i r)", "fcir"), fcir, Unit::Stress)
+            .input(sy("f_(c d s)", "fcds"), fcds, Unit::Stress)
+            .result(l.cr, Unit::Stress)
+            .clause(SOURCE)
+            .note(if kcr < 2.0 {
+                "Kcr = 1.6 for sand-lightweight concrete (λ < 1; all-lightweight concrete is outside the method's calibration, from memory); not less than 0"
+            } else {
+                "Kcr = 2.0 for normalweight concrete, pretensioned; not less than 0"
+            })
+    });
+    let vs_factor = match p.sys {
+        System::Us => 0.06,
+        System::Si => 0.0024,
+    };
+    tr.rec(|| {
+        step(&id("sh"), &title("Shrinkage"), sym_k("Delta f", "\"SH\"", "SH", k))
+            .formula(max(vec![
+                mul(vec![n(8.2e-6 * KSH), v(0), sub(n(1.0), mul(vec![n(vs_factor), v(1)])), sub(n(100.0), v(2))]),
+                n(0.0),
+            ]))
+            .input(eps_sym(), eps, Unit::Stress)
+            .input(sy("V/S", "V/S"), vs, Unit::Length)
+            .input(sy("R H", "RH"), rh, Unit::Ratio)
+            .result(l.sh, Unit::Stress)
+            .clause(SOURCE)
+            .note(match p.sys {
+                System::Us => "Ksh = 1.0 for pretensioned members; V/S in in, RH in per cent",
+                System::Si => {
+                    "Ksh = 1.0 for pretensioned members; V/S in mm (0.0024 per mm for 0.06 per in), RH in per cent"
+                }
+            })
+    });
+    let (kre, j) = kre_j(s.grade, p.sys);
+    tr.rec(|| {
+        step(&id("c"), &title("Relaxation factor"), sym_k("C", "", "C", k))
+            .result(l.c, Unit::Ratio)
+            .clause(SOURCE)
+            .note(format!(
+                "the method's table for low-relaxation strand at fpj/fpu = {}, interpolated linearly (table values from memory)",
+                crate::trace::show(jacking)
+            ))
+    });
+    tr.rec(|| {
+        step(&id("re"), &title("Relaxation"), sym_k("Delta f", "\"RE\"", "RE", k))
+            .formula(max(vec![mul(vec![sub(n(kre), mul(vec![n(j), add(vec![v(0), v(1), v(2)])])), v(3)]), n(0.0)]))
+            .input(sym_k("Delta f", "\"SH\"", "SH", k), l.sh, Unit::Stress)
+            .input(sym_k("Delta f", "\"CR\"", "CR", k), l.cr, Unit::Stress)
+            .input(sym_k("Delta f", "\"ES\"", "ES", k), l.es, Unit::Stress)
+            .input(sym_k("C", "", "C", k), l.c, Unit::Ratio)
+            .result(l.re, Unit::Stress)
+            .clause(SOURCE)
+            .note(format!(
+                "low-relaxation strand: Kre = {} {}, J = {} (the method's table, from memory); not less than 0",
+                crate::trace::show(kre),
+                p.sys.names().stress,
+                crate::trace::show(j)
+            ))
+    });
+    tr.rec(|| {
+        step(&id("total"), &title("Total loss"), sym_k("Delta f", "p", "Δfp", k))
+            .formula(add(vec![v(0), v(1), v(2), v(3)]))
+            .input(sym_k("Delta f", "\"ES\"", "ES", k), l.es, Unit::Stress)
+            .input(sym_k("Delta f", "\"CR\"", "CR", k), l.cr, Unit::Stress)
+            .input(sym_k("Delta f", "\"SH\"", "SH", k), l.sh, Unit::Stress)
+            .input(sym_k("Delta f", "\"RE\"", "RE", k), l.re, Unit::Stress)
+            .result(l.total, Unit::Stress)
+            .clause(SOURCE)
+    });
+    tr.rec(|| {
+        Step::new("losses", format!("prestress.fse.{k}"), title("Effective prestress"), sym_k("f", "\"se\"", "fse", k))
+            .formula(sub(v(0), v(1)))
+            .input(sym_k("f", "\"pj\"", "fpj", k), l.fpj, Unit::Stress)
+            .input(sym_k("Delta f", "p", "Δfp", k), l.total, Unit::Stress)
+            .result(l.fse, Unit::Stress)
+            .note("jacking stress less the computed losses; used at every section of the member")
+    });
+    tr.rec(|| {
+        Step::new(
+            "losses",
+            format!("prestress.fpi.{k}"),
+            title("Stress just after release"),
+            sym_k("f", "\"pi\"", "fpi", k),
+        )
+        .formula(sub(v(0), v(1)))
+        .input(sym_k("f", "\"pj\"", "fpj", k), l.fpj, Unit::Stress)
+        .input(sym_k("Delta f", "\"ES\"", "ES", k), l.es, Unit::Stress)
+        .result(l.fpi, Unit::Stress)
+        .note("jacking stress less elastic shortening (the method takes no relaxation apart before release)")
+    });
+}
