@@ -397,3 +397,69 @@ fn given_prestress_is_reported_as_given() {
     same("prestress.fse.2", o.step("prestress.fse.2"), 164.5);
     assert!(!o.trace.iter().any(|s| s.id.starts_with("losses.")), "no loss steps");
 }
+
+// SI units: the same method in MPa and mm (shrinkage with 0.0024 per mm for the 0.06 per in
+// of the US form, a unit conversion: 0.06 / 25.4 = 0.00236, printed 0.0024 (from memory));
+// Eci = 4700 sqrt(f'ci) MPa, ACI 318M-19 19.2.2.1(b); Eps = 196 500 MPa, the initial slope
+// of the SI strand curve (PCI Design Handbook, as the design basis states); Kre = 34.5 MPa
+// (5000 psi), J = 0.040 for Grade 1860 low-relaxation strand (the method's table, from
+// memory); C = 1.00 at fpj/fpu = 0.75 (same table).
+#[test]
+fn si_member_by_hand() {
+    let body = r#"
+[[member]]
+id = "S-1"
+length = 9000.0
+[member.loads]
+superimposed_dead = "4.0 kN/m"
+live = "10.0 kN/m"
+[member.concrete]
+fc = 40.0
+fci = 28.0
+[member.losses]
+method = "zia-1979"
+relative_humidity = 60
+[member.section]
+shape = "rectangle"
+width = 300.0
+height = 600.0
+[[member.strands]]
+height = 60.0
+count = 6
+diameter = 12.7
+jacking = 0.75
+"#;
+    let pkg = parse(&format!("{HEAD_SI}{body}"));
+    let a = analysis::analyze(&pkg, true).expect("analysis");
+    let doc = serde_json::to_value(present::check_document(&pkg, &a)).unwrap();
+    let m = &doc["members"][0];
+    let area = 300.0 * 600.0; // mm²
+    let inertia = 300.0 * 600.0_f64.powi(3) / 12.0; // mm⁴
+    let aps = 6.0 * 98.7; // mm², ASTM A416M 12.7 mm strand, 98.7 mm² (from memory)
+    let fpj = 0.75 * 1860.0;
+    let pi = fpj * aps; // N
+    let e = 300.0 - 60.0; // mm below the centroid
+    // N/mm: the default 2400 kg/m³ (common practice) times standard gravity 9.80665 m/s²
+    let w = area * 2400.0 * 9.80665e-9;
+    let mg = w * 9000.0_f64.powi(2) / 8.0; // N-mm at midspan
+    let fcir = 0.9 * (pi / area + pi * e * e / inertia) - mg * e / inertia;
+    let msd = 4.0 * 9000.0_f64.powi(2) / 8.0; // 4.0 N/mm
+    let fcds = msd * e / inertia;
+    let eci = 4700.0 * 28.0_f64.sqrt();
+    let ec = 4700.0 * 40.0_f64.sqrt();
+    let eps = 196_500.0;
+    let vs = area / (2.0 * (300.0 + 600.0));
+    let es = eps * fcir / eci;
+    let cr = 2.0 * eps / ec * (fcir - fcds);
+    let sh = 8.2e-6 * eps * (1.0 - 0.0024 * vs) * (100.0 - 60.0);
+    let re = (34.5 - 0.040 * (sh + cr + es)) * 1.00;
+    let fse = fpj - (es + cr + sh + re);
+    let got = |k: &str| m["prestress"][0]["losses"][k].as_f64().unwrap();
+    let close = |a: f64, b: f64| (a - b).abs() <= 1e-9 * b.abs();
+    assert!(close(m["losses"]["fcir"].as_f64().unwrap(), fcir), "fcir {} vs {fcir}", m["losses"]["fcir"]);
+    assert!(close(got("es"), es), "ES {} vs {es}", got("es"));
+    assert!(close(got("cr"), cr), "CR {} vs {cr}", got("cr"));
+    assert!(close(got("sh"), sh), "SH {} vs {sh}", got("sh"));
+    assert!(close(got("re"), re), "RE {} vs {re}", got("re"));
+    assert!(close(m["prestress"][0]["fse"].as_f64().unwrap(), fse));
+}

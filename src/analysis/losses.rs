@@ -227,6 +227,24 @@ pub(super) fn compute(p: &Prepared, d: &Demand, tr: &mut Trace) -> Result<(Membe
         out.strands[i].fse = fse;
         results.push(lr);
     }
+    // the effective force of the member, every layer fully transferred
+    tr.rec(|| {
+        let mut st = step("pe", "Effective prestress force (fully transferred)", sy("P_e", "Pe"));
+        let mut terms = Vec::new();
+        for (i, s) in out.strands.iter().enumerate() {
+            let j = st.inputs.len();
+            st = st.input(sym_k("f", "\"se\"", "fse", i + 1), s.fse, Unit::Stress).input(
+                sym_k("A", "\"ps\"", "Aps", i + 1),
+                s.total_area(),
+                Unit::Area,
+            );
+            terms.push(mul(vec![v(j), v(j + 1)]));
+        }
+        let pe: f64 = out.strands.iter().map(|s| s.fse * s.total_area()).sum();
+        st.formula(per(add(terms), 1.0 / cv.f_div))
+            .result(pe * cv.kf, Unit::Force)
+            .note("beyond the transfer lengths; a section within one works its own")
+    });
     let losses = Losses {
         method: "zia-1979",
         x,
