@@ -48,7 +48,10 @@ height = 3.0               # from the bottom (or depth = ... from the top)
 count = 8
 diameter = 0.5             # area from the ASTM A416 table
 jacking = 0.75             # fraction of fpu
-losses = 35.0              # total prestress losses, ksi (no default: give fse or losses)
+losses = 35.0              # total prestress losses, ksi (no default: give fse or losses,
+                           # or leave both out to have them computed: fci in
+                           # [member.concrete], [member.losses] with method = "zia-1979"
+                           # and relative_humidity, and the member's [member.loads])
 
 [[member.location]]        # check locations: name, x from the left end, mu there
 name = "midspan"
