@@ -463,3 +463,46 @@ jacking = 0.75
     assert!(close(got("re"), re), "RE {} vs {re}", got("re"));
     assert!(close(m["prestress"][0]["fse"].as_f64().unwrap(), fse));
 }
+
+// What the method assumes of the member, each an input error naming the key (exit 2):
+// concrete not all-lightweight (lambda 0.75, ACI 318-19 Table 19.2.4.1(a), is refused;
+// all-lightweight concrete is outside the method's calibration, from memory), a given Ec
+// needs its Eci, low-relaxation strand (fpy = 0.90 fpu, ASTM A416, common practice: the
+// low-relaxation rows of the tables are used), and every layer bonded and transferred at
+// the middle of the length (a layer debonded over 220 in of a 480 in member is not).
+#[test]
+fn what_the_method_assumes_is_refused_where_it_fails() {
+    let cases = [
+        ("lambda", MEMBER_A.replace("fci = 4.5\n", "fci = 4.5\nlambda = 0.75\n")),
+        ("eci", MEMBER_A.replace("fci = 4.5\n", "fci = 4.5\nec = 4000.0\n")),
+        ("fpy", MEMBER_A.replace("jacking = 0.72", "jacking = 0.72\nfpy = 229.5")),
+        ("debonded_length", MEMBER_A.replace("jacking = 0.72", "jacking = 0.72\ndebonded_length = 220.0")),
+    ];
+    for (key, text) in cases {
+        let (code, err) = run_check(&text);
+        assert_eq!(code, Some(2), "{key}: {err}");
+        assert!(err.contains(key), "{key} not named: {err}");
+    }
+    // with Ec given, a given Eci is accepted and used: ES = Eps fcir / Eci
+    let o = checked(&MEMBER_A.replace("fci = 4.5\n", "fci = 4.5\nec = 4000.0\neci = 3500.0\n"));
+    same("Eci given", o.losses("eci"), 3500.0);
+    same("ES with the given Eci", o.layer(1, &["losses", "es"]), 28_500.0 * o.losses("fcir") / 3500.0);
+    // sand-lightweight (lambda 0.85): Kcr = 1.6 (the method, from memory)
+    let o = checked(&MEMBER_A.replace("fci = 4.5\n", "fci = 4.5\nlambda = 0.85\n"));
+    same("Kcr", o.losses("kcr"), 1.6);
+}
+
+// A member whose concrete is not in compression at the strands just after release (a
+// long, lightly prestressed member: Mg e / I outweighs the prestress) is refused by the
+// analysis: the method estimates losses of concrete in compression (fcir > 0).
+#[test]
+fn tension_at_the_strands_is_refused() {
+    let text = MEMBER_A
+        .replace("length = 480.0", "length = 1200.0")
+        .replace("count = 6", "count = 1")
+        .replace("count = 4", "count = 1");
+    let pkg = parse(&format!("{HEAD_US}{text}"));
+    let Err(e) = analysis::analyze(&pkg, false) else { panic!("a member in tension at its strands is refused") };
+    let e = e.to_string();
+    assert!(e.contains("not in compression"), "{e}");
+}

@@ -5,8 +5,10 @@
 //! creep, shrinkage and relaxation, each a recorded step; then each layer's fse (used
 //! by strength at every section) and its stress just after release, fpi.
 //!
-//! The coefficients are the method's for pretensioned members; the values of its tables
-//! (Kre, J, C) are recalled from memory and say so where they are shown.
+//! The coefficients are the method's for pretensioned members. Kes = 1.0 is from a
+//! stored copy of the paper; the other coefficients (Kcir, Kcr, Ksh, the shrinkage
+//! constants) and the values of its tables (Kre, J, C) are recalled from memory and say
+//! so where they are shown.
 
 use super::demand::Demand;
 use super::prepare::Prepared;
@@ -141,9 +143,13 @@ pub(super) fn compute(p: &Prepared, d: &Demand, tr: &mut Trace) -> Result<(Membe
             .note("Σ fpj Aps of the layers: the jacking stress, no loss before release taken apart (the method's relaxation is the whole)")
     });
     tr.rec(|| {
-        step("e", "Eccentricity of the strands below the precast centroid", sy("e", "e"))
-            .result(e, Unit::Length)
-            .note(format!("at x = {} (the middle of the member's length), weighted by fpj Aps", crate::trace::show(x)))
+        step("e", "Eccentricity of the strands below the precast centroid", sy("e", "e")).result(e, Unit::Length).note(
+            format!(
+                "at x = {} {} (the middle of the member's length), weighted by fpj Aps",
+                crate::trace::show(x),
+                sys.names().length
+            ),
+        )
     });
     // moments at the section: self-weight at release, then the dead loads after it
     let (mut mg, mut m_top, mut m_sd) = (0.0, 0.0, 0.0);
@@ -165,12 +171,22 @@ pub(super) fn compute(p: &Prepared, d: &Demand, tr: &mut Trace) -> Result<(Membe
         let (st, term) = super::demand::uniform_term(st, d, x, sys);
         st.formula(term)
             .result(mg * cv.km, Unit::Moment)
-            .note("the self-weight of the precast unit, acting at release; simple span between the bearings")
+            .note("the self-weight of the precast unit at the middle of the length, taken on the span between the bearings (in the bed the member spans its whole length: a larger Mg there, smaller losses; the smaller Mg here gives the larger losses)")
     });
     m_sd += d.points.iter().filter(|q| q.kind == LoadKind::Dead).map(|q| d.point_moment(q.p, q.x, x)).sum::<f64>();
     let (a, i) = (p.precast.area, p.precast.i);
     let fcir = KCIR * (pi / a + pi * e * e / i) - mg * e / i;
     tr.rec(|| fcir_step(p, pi, e, mg, fcir));
+    // the method estimates the losses of a member in compression at its strands
+    if fcir.is_nan() || fcir <= 0.0 {
+        return Err(fail(format!(
+            "the concrete at the strands is not in compression just after release (fcir = {} {} at x = {} {}): the loss method does not apply; give fse or losses",
+            crate::trace::show(fcir),
+            sys.names().stress,
+            crate::trace::show(x),
+            sys.names().length
+        )));
+    }
     let (fcds, e_c, i_c) = match &p.composite {
         Some(c) => {
             let y = p.precast.yc - e;
@@ -308,7 +324,7 @@ fn record_eci(p: &Prepared, rel: &crate::input::model::Release, tr: &mut Trace) 
 /// fcir = Kcir (Pi/A + Pi e²/I) - Mg e / I, in shown units.
 fn fcir_step(p: &Prepared, pi: f64, e: f64, mg: f64, fcir: f64) -> Step {
     let cv = p.cv;
-    step("fcir", "Concrete stress at the strands just after release", sy("f_(c i r)", "fcir"))
+    step("fcir", "Concrete stress at the centroid of the strands just after release", sy("f_(c i r)", "fcir"))
         .formula(sub(
             mul(vec![n(KCIR), add(vec![div(per(v(0), 1.0 / cv.f_div), v(1)), div(mul(vec![per(v(0), 1.0 / cv.f_div), pow(v(2), n(2.0))]), v(3))])]),
             div(mul(vec![per(v(4), 1.0 / cv.s_div), v(2)]), v(3)),
@@ -320,14 +336,18 @@ fn fcir_step(p: &Prepared, pi: f64, e: f64, mg: f64, fcir: f64) -> Step {
         .input(sy("M_g", "Mg"), mg * cv.km, Unit::Moment)
         .result(fcir, Unit::Stress)
         .clause(SOURCE)
-        .note("Kcir = 0.9 for pretensioned members; Mg: the self-weight moment at this section, on the precast section; compression positive")
+        .note("Kcir = 0.9 for pretensioned members (from memory); Mg: the self-weight moment at this section, on the precast section; compression positive")
 }
 
 /// fcds: the dead loads applied after release, at the strands.
 #[allow(clippy::too_many_arguments)]
 fn fcds_step(p: &Prepared, m_top: f64, m_sd: f64, e: f64, e_c: f64, i_c: f64, fcds: f64) -> Step {
     let cv = p.cv;
-    let st = step("fcds", "Concrete stress at the strands from the dead load after release", sy("f_(c d s)", "fcds"));
+    let st = step(
+        "fcds",
+        "Concrete stress at the centroid of the strands from the dead load after release",
+        sy("f_(c d s)", "fcds"),
+    );
     match &p.composite {
         Some(_) => st
             .formula(add(vec![
@@ -397,9 +417,9 @@ fn record_layer(
             .result(l.cr, Unit::Stress)
             .clause(SOURCE)
             .note(if kcr < 2.0 {
-                "Kcr = 1.6 for sand-lightweight concrete (λ < 1; all-lightweight concrete is outside the method's calibration, from memory); not less than 0"
+                "Kcr = 1.6 for sand-lightweight concrete (λ below 1, at least 0.85), from memory; not less than 0"
             } else {
-                "Kcr = 2.0 for normalweight concrete, pretensioned; not less than 0"
+                "Kcr = 2.0 for normalweight concrete, pretensioned (from memory); not less than 0"
             })
     });
     let vs_factor = match p.sys {
@@ -418,9 +438,9 @@ fn record_layer(
             .result(l.sh, Unit::Stress)
             .clause(SOURCE)
             .note(match p.sys {
-                System::Us => "Ksh = 1.0 for pretensioned members; V/S in in, RH in per cent",
+                System::Us => "Ksh = 1.0 for pretensioned members, 8.2 × 10⁻⁶ and 0.06 (from memory); V/S in in, RH in per cent; not less than 0",
                 System::Si => {
-                    "Ksh = 1.0 for pretensioned members; V/S in mm (0.0024 per mm for 0.06 per in), RH in per cent"
+                    "Ksh = 1.0 for pretensioned members, 8.2 × 10⁻⁶ (from memory); V/S in mm (0.0024 per mm for 0.06 per in), RH in per cent; not less than 0"
                 }
             })
     });
@@ -430,7 +450,7 @@ fn record_layer(
             .result(l.c, Unit::Ratio)
             .clause(SOURCE)
             .note(format!(
-                "the method's table for low-relaxation strand at fpj/fpu = {}, interpolated linearly (table values from memory)",
+                "the method's table for low-relaxation steel, its ratio of the initial stress to fpu taken at the jacking stress, fpj/fpu = {}, interpolated linearly (table values from memory)",
                 crate::trace::show(jacking)
             ))
     });
@@ -444,7 +464,12 @@ fn record_layer(
             .result(l.re, Unit::Stress)
             .clause(SOURCE)
             .note(format!(
-                "low-relaxation strand: Kre = {} {}, J = {} (the method's table, from memory); not less than 0",
+                "{}: Kre = {} {}, J = {} (the method's table, from memory); not less than 0",
+                match s.grade {
+                    Grade::G270 => "Grade 270 low-relaxation strand",
+                    Grade::G250 =>
+                        "Grade 250 low-relaxation steel (the method's row is for wire; taken here for strand)",
+                },
                 crate::trace::show(kre),
                 p.sys.names().stress,
                 crate::trace::show(j)

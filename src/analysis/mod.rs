@@ -140,19 +140,7 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
     // computed losses first: they fill in the fse of their layers, which everything
     // after them reads (the member with those filled in is the one analysed)
     let mut lt = Trace::new(trace);
-    let computed = match m.computes_losses() {
-        true => {
-            let p0 = prepare(m, basis, &mut Trace::new(false))?;
-            let d0 =
-                demand::of_member(&p0, m, &mut Trace::new(false)).ok_or_else(|| crate::error::Error::Analysis {
-                    member: m.id.clone(),
-                    location: String::new(),
-                    message: "computed losses need the member's loads".into(),
-                })?;
-            Some(losses::compute(&p0, &d0, &mut lt)?)
-        }
-        false => None,
-    };
+    let computed = with_losses(m, basis, &mut lt)?;
     let (m, losses) = match &computed {
         Some((effective, l)) => (effective, Some(l.clone())),
         None => (m, None),
@@ -421,10 +409,27 @@ fn mirrors(p: &prepare::Prepared, len: f64, a: &StationRow, b: &StationRow) -> b
         && a.conditions == b.conditions
 }
 
+/// The member with the fse of the layers that take computed losses filled in, and the
+/// loss computation (recorded in `tr`); `None` where no layer computes its losses.
+fn with_losses(m: &Member, basis: &'static dyn Basis, tr: &mut Trace) -> Result<Option<(Member, losses::Losses)>> {
+    if !m.computes_losses() {
+        return Ok(None);
+    }
+    let p0 = prepare(m, basis, &mut Trace::new(false))?;
+    let d0 = demand::of_member(&p0, m, &mut Trace::new(false)).ok_or_else(|| crate::error::Error::Analysis {
+        member: m.id.clone(),
+        location: String::new(),
+        message: "computed losses need the member's loads".into(),
+    })?;
+    losses::compute(&p0, &d0, tr).map(Some)
+}
+
 /// phi Mn at each x along a member (from its left end), untraced: the strength solution
 /// of the station table without its demand, minimum-strength check or the settling of
 /// strand rupture. For benchmarks and callers who want the capacity alone.
 pub fn phi_mn_along(m: &Member, basis: &'static dyn Basis, xs: &[f64]) -> Result<Vec<f64>> {
+    let computed = with_losses(m, basis, &mut Trace::new(false))?;
+    let m = computed.as_ref().map_or(m, |(effective, _)| effective);
     let p = prepare(m, basis, &mut Trace::new(false))?;
     xs.iter()
         .map(|&x| {

@@ -31,6 +31,15 @@ pub(super) fn release(
     let fci = cx.ranged("fci", &c.fci, Dim::Stress, 0.5 * r.fc.0, concrete.fc, false);
     let eci = fci.and_then(|fci| match &c.eci {
         Some(_) => cx.ranged("eci", &c.eci, Dim::Stress, r.ec.0, r.ec.1, false).map(|v| (v, EcSource::Given)),
+        // a given Ec follows no rule that Eci could follow too
+        None if concrete.ec_source == EcSource::Given => {
+            cx.problem(
+                "eci",
+                "eci is missing: Ec is given, so Eci cannot be had by the rule for Ec",
+                Some(format!("Eci at release, {} to {} {}", r.ec.0, r.ec.1, cx.sys.names().stress)),
+            );
+            None
+        }
         None => Some(match concrete.ec_source {
             EcSource::Density { wc } => (cx.basis.ec_density(fci, wc).value, EcSource::Density { wc }),
             _ => {
@@ -42,8 +51,24 @@ pub(super) fn release(
             }
         }),
     });
+    let (eci, eci_source) = match eci {
+        Some(e) => e,
+        None => {
+            cx.leave();
+            return None;
+        }
+    };
+    if eci > concrete.ec {
+        cx.warn(
+            "eci",
+            format!(
+                "Eci = {} exceeds Ec = {}; confirm them",
+                cx.shown(Dim::Stress, eci),
+                cx.shown(Dim::Stress, concrete.ec)
+            ),
+        );
+    }
     cx.leave();
-    let (eci, eci_source) = eci?;
     Some(Some(Release { fci: fci?, eci, eci_source }))
 }
 
@@ -55,6 +80,7 @@ pub(super) fn method(
     strands: &[StrandLayer],
     release: Option<&Release>,
     has_loads: bool,
+    length: Option<f64>,
 ) -> Option<Option<LossMethod>> {
     let computed = strands.iter().any(|s| matches!(s.fse_source, FseSource::Computed { .. }));
     let Some(l) = &m.losses else {
@@ -76,6 +102,7 @@ pub(super) fn method(
         return Some(None);
     }
     let mut ok = true;
+    ok &= method_applies(cx, m, strands, length);
     // the force before release needs every tensioned layer's jacking stress
     for (k, s) in strands.iter().enumerate() {
         if matches!(s.fse_source, FseSource::Given) && s.fse > 0.0 {
@@ -143,8 +170,72 @@ pub(super) fn method(
         Some(v) => Some(v?),
         None => None,
     };
+    if let Some(v) = volume_to_surface {
+        let factor = match cx.sys {
+            System::Us => 0.06,
+            System::Si => 0.0024,
+        };
+        if 1.0 - factor * v <= 0.0 {
+            cx.enter(Seg::Key("losses"));
+            cx.warn("volume_to_surface", "V/S is so large that the method's shrinkage term (1 - 0.06 V/S, in) is not positive: the shrinkage loss is taken as 0; confirm V/S");
+            cx.leave();
+        }
+    }
     if !ok {
         return None;
     }
     Some(Some(LossMethod { relative_humidity: rh?, volume_to_surface }))
+}
+
+/// What the method assumes of the member, each an input error naming its key: concrete
+/// of normal or sand-lightweight weight (lambda at least 0.85; all-lightweight concrete
+/// is outside the method's calibration, from memory), low-relaxation strand (fpy = 0.90
+/// fpu: the tables used are the method's low-relaxation rows), and every layer bonded
+/// and fully transferred at the middle of the length, where the losses are computed.
+fn method_applies(cx: &mut Ctx, m: &raw::Member, strands: &[StrandLayer], length: Option<f64>) -> bool {
+    let mut ok = true;
+    if let Some(lambda) = m.concrete.as_ref().and_then(|c| c.lambda)
+        && lambda < 0.85
+    {
+        cx.enter(Seg::Key("concrete"));
+        cx.problem(
+            "lambda",
+            format!("lambda = {} (all-lightweight concrete) is outside the loss method's calibration", num(lambda)),
+            Some("lambda 0.85 to 1.0 for computed losses, or give fse or losses".to_string()),
+        );
+        cx.leave();
+        ok = false;
+    }
+    let (d1, _) = cx.basis.development_divisors();
+    for (k, s) in strands.iter().enumerate() {
+        let FseSource::Computed { fpj, .. } = s.fse_source else { continue };
+        cx.enter(Seg::Key("strands"));
+        cx.enter(Seg::Idx(k));
+        if s.fpy < 0.9 * s.fpu * (1.0 - 1e-9) {
+            cx.problem(
+                "fpy",
+                format!("fpy = {} is below 0.90 fpu: not low-relaxation strand, whose rows of the method's tables are the ones used", cx.shown(Dim::Stress, s.fpy)),
+                Some("fpy = 0.90 fpu (low-relaxation strand) for computed losses, or give fse or losses".to_string()),
+            );
+            ok = false;
+        }
+        // the transfer length at fpj bounds the one at fse
+        if let Some(len) = length
+            && s.debonded_length + fpj / d1 * s.diameter >= len / 2.0
+        {
+            cx.problem(
+                "debonded_length",
+                format!(
+                    "the layer is debonded over {} and its strand transfers over up to {} more: it is not fully bonded at the middle of the length, where computed losses are taken",
+                    cx.shown(Dim::Length, s.debonded_length),
+                    cx.shown(Dim::Length, fpj / d1 * s.diameter)
+                ),
+                Some("a debonded length that leaves the middle of the member fully bonded, or fse or losses given".to_string()),
+            );
+            ok = false;
+        }
+        cx.leave();
+        cx.leave();
+    }
+    ok
 }

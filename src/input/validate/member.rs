@@ -177,7 +177,8 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     let region = region?;
     let (strands, bars) = steel(cx, m, &region, length, &mut defaults)?;
     let release = release?;
-    let losses = losses::method(cx, m, &strands, release.as_ref(), loads.is_some())?;
+    let member_length = length.or(loads.as_ref().map(|l| l.span));
+    let losses = losses::method(cx, m, &strands, release.as_ref(), loads.is_some(), member_length)?;
     let curve = curve_options(cx, m)?;
     // dedup defaults (several layers may take the same one)
     let mut seen: Vec<Default> = Vec::new();
