@@ -361,16 +361,18 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                     hooks: report::Hooks { pause: &between_runs, ..report::Hooks::default() },
                 },
             )?;
-            println!("verify {}", file.display());
-            for c in &r.checks {
-                let tag = match c.ok {
-                    Some(true) => "ok  ",
-                    Some(false) => "FAIL",
-                    None => "--  ",
-                };
-                println!("  [{tag}] {}: {}", c.name, c.detail);
-            }
-            println!("{}", r.verdict());
+            write_stdout(|w| {
+                writeln!(w, "verify {}", file.display())?;
+                for c in &r.checks {
+                    let tag = match c.ok {
+                        Some(true) => "ok  ",
+                        Some(false) => "FAIL",
+                        None => "--  ",
+                    };
+                    writeln!(w, "  [{tag}] {}: {}", c.name, c.detail)?;
+                }
+                writeln!(w, "{}", r.verdict())
+            })?;
             Ok(ExitCode::from(r.exit_code()))
         }
         Cmd::Keygen { output, name, license } => {
@@ -397,11 +399,12 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             let a = diff::load(&old)?;
             let b = diff::load(&new)?;
             let d = diff::compare(&a, &b);
-            if json {
-                println!("{}", serde_json::to_string_pretty(&d).map_err(|e| Error::Usage(e.to_string()))?);
+            let text = if json {
+                format!("{}\n", serde_json::to_string_pretty(&d).map_err(|e| Error::Usage(e.to_string()))?)
             } else {
-                print!("{}", diff::table(&d));
-            }
+                diff::table(&d)
+            };
+            write_stdout(|w| w.write_all(text.as_bytes()))?;
             Ok(ExitCode::SUCCESS)
         }
         Cmd::Curve { file, member, location, format } => {
@@ -442,13 +445,14 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
                 None => r.governing,
             };
             let c = analysis::curve::moment_curvature(r.member(m), pkg.basis(), &r.sites[li], li)?;
-            match format {
+            let text = match format {
                 CurveFormat::Json => {
                     let v = present::curve_json(&pkg, &c, &r.locations[li]);
-                    println!("{}", serde_json::to_string_pretty(&v).map_err(|e| Error::Usage(e.to_string()))?);
+                    format!("{}\n", serde_json::to_string_pretty(&v).map_err(|e| Error::Usage(e.to_string()))?)
                 }
-                CurveFormat::Csv => print!("{}", present::curve_csv(&pkg, &c)),
-            }
+                CurveFormat::Csv => present::curve_csv(&pkg, &c),
+            };
+            write_stdout(|w| w.write_all(text.as_bytes()))?;
             Ok(ExitCode::SUCCESS)
         }
         Cmd::Trace { file, member, format } => {

@@ -209,3 +209,28 @@ fn every_demo_checks_and_renders() {
         assert!(std::fs::metadata(&pdf).unwrap().len() > 10_000);
     }
 }
+
+// A reader that closes its end of the pipe early (`| head`) ends the output quietly:
+// no panic on a broken pipe, from any command that writes to standard output.
+#[test]
+fn a_closed_pipe_is_not_a_panic() {
+    let demo = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/parking-double-tee.toml");
+    let demo = demo.to_str().unwrap();
+    for args in [
+        vec!["curve", demo, "--member", "DT-2", "--format", "json"],
+        vec!["curve", demo, "--member", "DT-2", "--format", "csv"],
+        vec!["check", "--json", demo],
+        vec!["trace", demo],
+    ] {
+        let mut child = bin()
+            .args(&args)
+            .stdout(std::process::Stdio::piped())
+            .stderr(std::process::Stdio::piped())
+            .spawn()
+            .unwrap();
+        drop(child.stdout.take());
+        let out = child.wait_with_output().unwrap();
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert!(!err.contains("panicked"), "{args:?}: {err}");
+    }
+}
