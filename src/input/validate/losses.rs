@@ -101,9 +101,23 @@ pub(super) fn method(
         );
         return Some(None);
     }
+    let mut ok = method_applies(cx, m, strands, length);
+    ok &= needs_of_the_member(cx, strands, release, has_loads);
+    cx.enter(Seg::Key("losses"));
+    let table = method_table(cx, l);
+    cx.leave();
+    let (rh, volume_to_surface) = table?;
+    if !ok {
+        return None;
+    }
+    Some(Some(LossMethod { relative_humidity: rh, volume_to_surface }))
+}
+
+/// What computed losses need of the member: every tensioned layer's jacking stress (for
+/// the force before release), f'ci and the member's loads. Each missing one is a
+/// problem naming its key.
+fn needs_of_the_member(cx: &mut Ctx, strands: &[StrandLayer], release: Option<&Release>, has_loads: bool) -> bool {
     let mut ok = true;
-    ok &= method_applies(cx, m, strands, length);
-    // the force before release needs every tensioned layer's jacking stress
     for (k, s) in strands.iter().enumerate() {
         if matches!(s.fse_source, FseSource::Given) && s.fse > 0.0 {
             cx.enter(Seg::Key("strands"));
@@ -136,7 +150,13 @@ pub(super) fn method(
         );
         ok = false;
     }
-    cx.enter(Seg::Key("losses"));
+    ok
+}
+
+/// The keys of `[member.losses]` (the context is inside it): the method, the relative
+/// humidity and V/S where given.
+fn method_table(cx: &mut Ctx, l: &raw::Losses) -> Option<(f64, Option<f64>)> {
+    let mut ok = true;
     match l.method.as_deref() {
         Some("zia-1979") => {}
         Some(other) => {
@@ -161,30 +181,26 @@ pub(super) fn method(
         );
     }
     let r = ranges(cx.sys);
-    let vs = l
-        .volume_to_surface
-        .as_ref()
-        .map(|_| cx.ranged("volume_to_surface", &l.volume_to_surface, Dim::Length, 0.0, r.dim_max / 10.0, true));
-    cx.leave();
-    let volume_to_surface = match vs {
-        Some(v) => Some(v?),
+    let vs = match &l.volume_to_surface {
+        Some(_) => {
+            Some(cx.ranged("volume_to_surface", &l.volume_to_surface, Dim::Length, 0.0, r.dim_max / 10.0, true)?)
+        }
         None => None,
     };
-    if let Some(v) = volume_to_surface {
-        let factor = match cx.sys {
-            System::Us => 0.06,
-            System::Si => 0.0024,
-        };
-        if 1.0 - factor * v <= 0.0 {
-            cx.enter(Seg::Key("losses"));
-            cx.warn("volume_to_surface", "V/S is so large that the method's shrinkage term (1 - 0.06 V/S, in) is not positive: the shrinkage loss is taken as 0; confirm V/S");
-            cx.leave();
-        }
+    let factor = match cx.sys {
+        System::Us => 0.06,
+        System::Si => 0.0024,
+    };
+    if vs.is_some_and(|v| 1.0 - factor * v <= 0.0) {
+        cx.warn(
+            "volume_to_surface",
+            "V/S is so large that the method's shrinkage term (1 - 0.06 V/S, in) is not positive: the shrinkage loss is taken as 0; confirm V/S",
+        );
     }
     if !ok {
         return None;
     }
-    Some(Some(LossMethod { relative_humidity: rh?, volume_to_surface }))
+    Some((rh?, vs))
 }
 
 /// What the method assumes of the member, each an input error naming its key: concrete
