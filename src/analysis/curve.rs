@@ -381,47 +381,76 @@ impl<'a> CurveEnds<'a> {
     }
 }
 
-/// The curve with `points` points after the march (at least 2). The march, and so the
-/// end and what ended the curve, do not depend on it; the peak is that of the points.
-/// `points` 0 asks for the end alone: two points, no cracking or yield event sought.
-fn curve_points(p: &Prepared, layers: &Layers, loc: &Station, li: usize, points: usize) -> Result<CurveResult> {
-    let m = p.m;
-    let sys = p.sys;
-    let mut tr = Trace::new(false);
-    let f = build(p, layers, loc, li);
-    let opts = m.curve;
-    let h = m.total_height();
-    let km = p.cv.km;
-    let scale_n = m.concrete.fc * p.precast.area;
-    let scale_m = scale_n * h;
-    let mnc = if m.topping.is_some() { loc.mnc } else { 0.0 };
-    // first yield: of the deepest strand (0.9 fpu, low-relaxation), or of the deepest bar
-    // (fy) in a section without strand
-    let fpy = f.extreme.map(|i| match f.steel[i].law {
-        SteelLaw::Strand(c) => c.fpy(),
-        SteelLaw::Bar(b) => b.fy,
-    });
-    let eps_cr = f.law_p.fr / f.law_p.ec;
-    let y_bot_strip = f.precast.y.iter().copied().fold(f64::INFINITY, f64::min);
+/// One curve's run: the fibres, the state the composite stage starts from, and the
+/// scales and limits its march uses.
+struct Run<'f, 'a> {
+    f: &'f Fibres<'a>,
+    base: State,
+    h: f64,
+    scale_n: f64,
+    km: f64,
+    crushing: f64,
+    rupture: f64,
+}
 
-    let point = |s: &State, initial: bool, moment: f64| -> Point {
+impl Run<'_, '_> {
+    fn point(&self, s: &State, initial: bool, moment: f64) -> Point {
+        let f = self.f;
         let k = s.k0 + s.dk;
         let e_ref = s.e0 + s.d0;
         let na = if k.abs() > 0.0 { f.y_top - (f.yr + e_ref / k) } else { f64::NAN };
         Point {
             curvature: k,
-            moment: moment * km,
+            moment: moment * self.km,
             top_strain: f.top_strain(s, initial),
             neutral_axis: na,
             strand_strain: f.strand_strain(s, initial),
         }
-    };
+    }
 
-    let mut pts: Vec<Point> = Vec::new();
-    let mut cracking: Option<Mark> = None;
-    let mut notes = Vec::new();
+    /// The composite state at a curvature increment, solved from a state near it.
+    fn solve_from(&self, from: &State, dk: f64) -> Option<State> {
+        let step = ((dk - from.dk).abs() * self.h * 0.25).max(1e-12);
+        self.f.equilibrium(&self.base, dk, from.d0, self.scale_n, step)
+    }
 
-    // stage 1: the precast unit alone, from the prestressed state to Mnc
+    /// How far a state is past the end of the curve (0 at it), and whether crushing
+    /// (rather than strand rupture) ends it.
+    fn end_fn(&self, s: &State) -> (f64, bool) {
+        let f = self.f;
+        let crush = -f.top_strain(s, false) / self.crushing;
+        let rupture = match f.extreme.map(|i| f.steel[i].law) {
+            Some(SteelLaw::Strand(_)) => f.strand_strain(s, false) / self.rupture,
+            _ => 0.0,
+        };
+        (crush.max(rupture) - 1.0, crush >= rupture)
+    }
+
+    /// The change of the top strain and of the extreme steel strain between two states,
+    /// as a share of the largest allowed in one step of the march (accepted up to 1).
+    fn change(&self, a: &State, b: &State) -> f64 {
+        let f = self.f;
+        let (d_top, d_steel) = (self.crushing / 40.0, self.rupture / 40.0);
+        ((f.top_strain(a, false) - f.top_strain(b, false)).abs() / d_top)
+            .max((f.strand_strain(a, false) - f.strand_strain(b, false)).abs() / d_steel)
+    }
+}
+
+/// Stage 1's states with the moment on each, and cracking where it cracks.
+type StageOne = (Vec<(State, f64)>, Option<Mark>);
+
+/// Stage 1: the precast unit alone, from the prestressed state to Mnc (ten steps): its
+/// points, the state the composite stage starts from, and cracking where the precast
+/// unit cracks under Mnc.
+fn stage_one(
+    f: &Fibres,
+    mnc: f64,
+    (scale_n, scale_m, h, km): (f64, f64, f64, f64),
+    (m, loc): (&Member, &Station),
+    notes: &mut Vec<String>,
+) -> Result<StageOne> {
+    let eps_cr = f.law_p.fr / f.law_p.ec;
+    let y_bot_strip = f.precast.y.iter().copied().fold(f64::INFINITY, f64::min);
     let start = f
         .initial(0.0, scale_n, scale_m, h)
         .ok_or_else(|| fail(m, loc, "no equilibrium of the prestressed precast unit"))?;
@@ -432,8 +461,8 @@ fn curve_points(p: &Prepared, layers: &Layers, loc: &Station, li: usize, points:
             if mnc > 0.0 { "" } else { " (no moment acts on the member at the start of this curve, not even its self-weight)" }
         ));
     }
-    pts.push(point(&start, true, 0.0));
-    let mut base = start;
+    let mut states = vec![(start, 0.0)];
+    let mut cracking = None;
     for j in 1..=stage1 {
         let mt = mnc * j as f64 / stage1 as f64;
         let s = f
@@ -442,87 +471,69 @@ fn curve_points(p: &Prepared, layers: &Layers, loc: &Station, li: usize, points:
         if cracking.is_none() && f.precast_strain(&s, y_bot_strip) >= eps_cr {
             notes.push("The precast unit cracks under the non-composite moment, before the topping acts.".into());
             let s_cr =
-                brent_initial(&f, mnc * (j - 1) as f64 / stage1 as f64, mt, eps_cr, y_bot_strip, scale_n, scale_m, h);
+                brent_initial(f, mnc * (j - 1) as f64 / stage1 as f64, mt, eps_cr, y_bot_strip, scale_n, scale_m, h);
             if let Some((mc, sc)) = s_cr {
                 cracking = Some(Mark { curvature: sc.k0, moment: mc * km });
             }
         }
-        pts.push(point(&s, true, mt));
-        base = s;
+        states.push((s, mt));
     }
+    Ok((states, cracking))
+}
 
-    // stage 2: composite from the starting state; increments dk from 0. The curve is
-    // followed step by step from the start (continuation): each state is solved from
-    // the one before, with steps that shrink where the strains change fast, up to the
-    // crushing or rupture strain, or to a limit point where no neighbouring
-    // equilibrium exists (the section softens).
-    let solve_from = |from: &State, dk: f64| {
-        let step = ((dk - from.dk).abs() * h * 0.25).max(1e-12);
-        f.equilibrium(&base, dk, from.d0, scale_n, step)
-    };
-    let end_fn = |s: &State| {
-        let crush = -f.top_strain(s, false) / opts.crushing_strain;
-        let rupture = match f.extreme.map(|i| f.steel[i].law) {
-            Some(SteelLaw::Strand(_)) => f.strand_strain(s, false) / opts.rupture_strain,
-            _ => 0.0,
-        };
-        (crush.max(rupture) - 1.0, crush >= rupture)
-    };
-    // the largest change of the top strain and of the extreme steel strain allowed in
-    // one step of the march
-    // (as a share of that limit: a step is accepted up to 1)
-    let d_top = opts.crushing_strain / 40.0;
-    let d_steel = opts.rupture_strain / 40.0;
-    let change = |a: &State, b: &State| {
-        ((f.top_strain(a, false) - f.top_strain(b, false)).abs() / d_top)
-            .max((f.strand_strain(a, false) - f.strand_strain(b, false)).abs() / d_steel)
-    };
+/// Stage 2: composite from the starting state; increments dk from 0. The curve is
+/// followed step by step from the start (continuation): each state is solved from the
+/// one before, with steps that shrink where the strains change fast, up to the crushing
+/// or rupture strain, or to a limit point where no neighbouring equilibrium exists (the
+/// section softens). The marched states, the end state and what ended the curve.
+fn march(run: &Run, (m, loc): (&Member, &Station)) -> Result<(Vec<State>, State, &'static str)> {
+    let base = run.base;
     let mut march: Vec<State> = vec![base];
-    let mut dstep = opts.crushing_strain / h / 32.0;
-    let mut ended_by = "";
-    let mut end_state = None;
+    let mut dstep = run.crushing / run.h / 32.0;
     for _ in 0..20_000 {
         let cur = *march.last().unwrap_or(&base);
-        if dstep <= 1e-9 * cur.dk.abs().max(opts.crushing_strain / h) {
-            ended_by = "a limit point (no equilibrium beyond it: the section softens)";
-            end_state = Some(cur);
-            break;
+        if dstep <= 1e-9 * cur.dk.abs().max(run.crushing / run.h) {
+            return Ok((march, cur, "a limit point (no equilibrium beyond it: the section softens)"));
         }
-        let next = match solve_from(&cur, cur.dk + dstep) {
-            Some(s) if change(&cur, &s) <= 1.0 => s,
+        let next = match run.solve_from(&cur, cur.dk + dstep) {
+            Some(s) if run.change(&cur, &s) <= 1.0 => s,
             _ => {
                 dstep *= 0.5;
                 continue;
             }
         };
-        if end_fn(&next).0 >= 0.0 {
+        if run.end_fn(&next).0 >= 0.0 {
             // the end lies in this step: find it on the branch, from the state before
-            let g = |dk: f64| solve_from(&cur, dk).map_or(f64::NAN, |s| end_fn(&s).0);
-            let (glo, ghi) = (end_fn(&cur).0, end_fn(&next).0);
+            let g = |dk: f64| run.solve_from(&cur, dk).map_or(f64::NAN, |s| run.end_fn(&s).0);
+            let (glo, ghi) = (run.end_fn(&cur).0, run.end_fn(&next).0);
             let dk = if glo >= 0.0 {
                 cur.dk
             } else {
                 brent(g, cur.dk, next.dk, glo, ghi, 1e-14 * next.dk.abs().max(1e-30), 1e-10).unwrap_or(next.dk)
             };
-            let s = solve_from(&cur, dk).unwrap_or(next);
-            ended_by = if end_fn(&s).1 { "concrete crushing" } else { "strand rupture" };
+            let s = run.solve_from(&cur, dk).unwrap_or(next);
+            let ended_by = if run.end_fn(&s).1 { "concrete crushing" } else { "strand rupture" };
             march.push(s);
-            end_state = Some(s);
-            break;
+            return Ok((march, s, ended_by));
         }
-        if change(&cur, &next) < 0.5 {
+        if run.change(&cur, &next) < 0.5 {
             dstep *= 1.6;
         }
         march.push(next);
     }
-    let end_state =
-        end_state.ok_or_else(|| fail(m, loc, "no equilibrium was found up to the crushing or rupture strain"))?;
-    let dk_end = end_state.dk;
+    Err(fail(m, loc, "no equilibrium was found up to the crushing or rupture strain"))
+}
 
-    // points: denser at the start, where cracking happens; each solved from the
-    // marched state just below it, so it lies on the same branch
-    let n = points.max(2);
-    let events = points > 0;
+/// `n` points up to the end: denser at the start, where cracking happens; each solved
+/// from the marched state just below it, so it lies on the same branch.
+fn sample(
+    run: &Run,
+    march: &[State],
+    end_state: State,
+    n: usize,
+    (m, loc): (&Member, &Station),
+) -> Result<Vec<(f64, State)>> {
+    let dk_end = end_state.dk;
     let mut states: Vec<(f64, State)> = Vec::with_capacity(n + 4);
     let mut k = 0;
     for j in 1..=n {
@@ -534,35 +545,45 @@ fn curve_points(p: &Prepared, layers: &Layers, loc: &Station, li: usize, points:
             while k + 1 < march.len() && march[k + 1].dk <= dk {
                 k += 1;
             }
-            solve_from(&march[k], dk).ok_or_else(|| fail(m, loc, "no equilibrium at a step of the curve"))?
+            run.solve_from(&march[k], dk).ok_or_else(|| fail(m, loc, "no equilibrium at a step of the curve"))?
         };
         states.push((dk, st));
     }
-    // events between points: cracking (bottom strip reaches fr) and first strand yield
+    Ok(states)
+}
+
+/// The events between the points: cracking (the bottom strip reaches fr) where stage 1
+/// did not find it, and the first yield of the extreme steel (`fpy`). Each is solved on
+/// the branch and its state added to the points.
+fn events(run: &Run, states: &mut Vec<(f64, State)>, cracking: &mut Option<Mark>, fpy: Option<f64>) -> Option<Mark> {
+    let f = run.f;
+    let eps_cr = f.law_p.fr / f.law_p.ec;
+    let y_bot_strip = f.precast.y.iter().copied().fold(f64::INFINITY, f64::min);
+    let dk_end = states.last().map_or(0.0, |s| s.0);
     let mut insert = Vec::new();
     let mut yielding = None;
-    let mut prev = (0.0, base);
-    for &(dk, st) in states.iter().filter(|_| events) {
+    let mut prev = (0.0, run.base);
+    for &(dk, st) in states.iter() {
         let crack = |s: &State| f.precast_strain(s, y_bot_strip) - eps_cr;
         if cracking.is_none() && crack(&prev.1) < 0.0 && crack(&st) >= 0.0 {
-            let gc = |x: f64| solve_from(&prev.1, x).map_or(f64::NAN, |s| crack(&s));
+            let gc = |x: f64| run.solve_from(&prev.1, x).map_or(f64::NAN, |s| crack(&s));
             if let Some(x) = brent(gc, prev.0, dk, crack(&prev.1), crack(&st), 1e-15 * dk_end, 0.0)
-                && let Some(s) = solve_from(&prev.1, x)
+                && let Some(s) = run.solve_from(&prev.1, x)
             {
                 let mo = f.forces(&s, false).1;
-                cracking = Some(Mark { curvature: s.k0 + s.dk, moment: mo * km });
+                *cracking = Some(Mark { curvature: s.k0 + s.dk, moment: mo * run.km });
                 insert.push((x, s));
             }
         }
         if let (None, Some(fpy), Some(i)) = (&yielding, fpy, f.extreme) {
             let ys = |s: &State| f.steel[i].stress(f.strand_strain(s, false), false) - fpy;
             if ys(&prev.1) < 0.0 && ys(&st) >= 0.0 {
-                let gy = |x: f64| solve_from(&prev.1, x).map_or(f64::NAN, |s| ys(&s));
+                let gy = |x: f64| run.solve_from(&prev.1, x).map_or(f64::NAN, |s| ys(&s));
                 if let Some(x) = brent(gy, prev.0, dk, ys(&prev.1), ys(&st), 1e-15 * dk_end, 0.0)
-                    && let Some(s) = solve_from(&prev.1, x)
+                    && let Some(s) = run.solve_from(&prev.1, x)
                 {
                     let mo = f.forces(&s, false).1;
-                    yielding = Some(Mark { curvature: s.k0 + s.dk, moment: mo * km });
+                    yielding = Some(Mark { curvature: s.k0 + s.dk, moment: mo * run.km });
                     insert.push((x, s));
                 }
             }
@@ -571,18 +592,19 @@ fn curve_points(p: &Prepared, layers: &Layers, loc: &Station, li: usize, points:
     }
     states.extend(insert);
     states.sort_by(|a, b| a.0.total_cmp(&b.0));
-    for (_, s) in &states {
-        let mo = f.forces(s, false).1;
-        pts.push(point(s, false, mo));
-    }
-    let peak = pts
-        .iter()
-        .max_by(|a, b| a.moment.total_cmp(&b.moment))
-        .map(|p| Mark { curvature: p.curvature, moment: p.moment })
-        .unwrap_or(Mark { curvature: 0.0, moment: 0.0 });
-    let last = pts.last().copied().ok_or_else(|| fail(m, loc, "no points"))?;
-    let ultimate = Mark { curvature: last.curvature, moment: last.moment };
-    let ductility = yielding.map(|y| ultimate.curvature / y.curvature).filter(|d| d.is_finite() && *d > 0.0);
+    yielding
+}
+
+/// The notes on a finished curve: a moment that falls after cracking, no yield, bars
+/// starting unstressed, strand within its transfer length.
+fn closing_notes(
+    p: &Prepared,
+    (loc, li): (&Station, usize),
+    pts: &[Point],
+    (cracking, yielding, peak): (Option<Mark>, Option<Mark>, Mark),
+    notes: &mut Vec<String>,
+) {
+    let m = p.m;
     // a moment that falls after cracking: the concrete's tension is lost at once
     if let Some(cr) = cracking {
         let after = pts.iter().filter(|q| q.curvature > cr.curvature);
@@ -593,7 +615,7 @@ fn curve_points(p: &Prepared, layers: &Layers, loc: &Station, li: usize, points:
                 "Just after cracking the moment falls from {} to {} {}: the concrete in tension carries fr until it cracks and nothing after (no tension stiffening), so its share is lost at once and the steel takes it up as the curvature grows.",
                 crate::trace::show(cr.moment),
                 crate::trace::show(low),
-                sys.names().moment
+                p.sys.names().moment
             ));
         }
     }
@@ -603,9 +625,50 @@ fn curve_points(p: &Prepared, layers: &Layers, loc: &Station, li: usize, points:
     if !m.bars.is_empty() {
         notes.push("Bars start unstressed at the prestressed state (their share of the prestress shortening is neglected, as in the strength calculation).".into());
     }
-    if loc.x.is_some() && p.m.strands.iter().zip(strands_at(p, li, loc, &mut tr).iter()).any(|(s, a)| a.fse < s.fse) {
+    let mut tr = Trace::new(false);
+    if loc.x.is_some() && m.strands.iter().zip(strands_at(p, li, loc, &mut tr).iter()).any(|(s, a)| a.fse < s.fse) {
         notes.push("Strand within its transfer length carries the reduced prestress here; the stress limits of 25.4.8.3 are not applied in the fibre analysis.".into());
     }
+}
+
+/// The curve with `points` points after the march (at least 2). The march, and so the
+/// end and what ended the curve, do not depend on it; the peak is that of the points.
+/// `points` 0 asks for the end alone: two points, no cracking or yield event sought.
+fn curve_points(p: &Prepared, layers: &Layers, loc: &Station, li: usize, points: usize) -> Result<CurveResult> {
+    let m = p.m;
+    let f = build(p, layers, loc, li);
+    let h = m.total_height();
+    let km = p.cv.km;
+    let scale_n = m.concrete.fc * p.precast.area;
+    let scale_m = scale_n * h;
+    let mnc = if m.topping.is_some() { loc.mnc } else { 0.0 };
+    // first yield: of the deepest strand (0.9 fpu, low-relaxation), or of the deepest bar
+    // (fy) in a section without strand
+    let fpy = f.extreme.map(|i| match f.steel[i].law {
+        SteelLaw::Strand(c) => c.fpy(),
+        SteelLaw::Bar(b) => b.fy,
+    });
+    let mut notes = Vec::new();
+    let (stage1, mut cracking) = stage_one(&f, mnc, (scale_n, scale_m, h, km), (m, loc), &mut notes)?;
+    let base = stage1.last().map_or(State::default(), |s| s.0);
+    let run = Run { f: &f, base, h, scale_n, km, crushing: m.curve.crushing_strain, rupture: m.curve.rupture_strain };
+    let mut pts: Vec<Point> = stage1.iter().map(|(s, mt)| run.point(s, true, *mt)).collect();
+    let (march, end_state, ended_by) = march(&run, (m, loc))?;
+    let mut states = sample(&run, &march, end_state, points.max(2), (m, loc))?;
+    let yielding = if points > 0 { events(&run, &mut states, &mut cracking, fpy) } else { None };
+    for (_, s) in &states {
+        let mo = f.forces(s, false).1;
+        pts.push(run.point(s, false, mo));
+    }
+    let peak = pts
+        .iter()
+        .max_by(|a, b| a.moment.total_cmp(&b.moment))
+        .map(|p| Mark { curvature: p.curvature, moment: p.moment })
+        .unwrap_or(Mark { curvature: 0.0, moment: 0.0 });
+    let last = pts.last().copied().ok_or_else(|| fail(m, loc, "no points"))?;
+    let ultimate = Mark { curvature: last.curvature, moment: last.moment };
+    let ductility = yielding.map(|y| ultimate.curvature / y.curvature).filter(|d| d.is_finite() && *d > 0.0);
+    closing_notes(p, (loc, li), &pts, (cracking, yielding, peak), &mut notes);
     Ok(CurveResult {
         member: m.id.clone(),
         location: loc.name.clone(),
