@@ -389,8 +389,7 @@ fn along_span(
 fn mirrors(p: &prepare::Prepared, len: f64, a: &StationRow, b: &StationRow) -> bool {
     let close = |u: f64, v: f64| (u - v).abs() <= 1e-9 * u.abs().max(v.abs()).max(1.0);
     let strands = |x: f64| {
-        let site =
-            station::Station { name: String::new(), x: Some(x), mu: 0.0, mnc: 0.0, mnc_scaled: false, moments: None };
+        let site = station::Station::without_demand(String::new(), x);
         prestress::strands_at(p, 0, &site, &mut Trace::new(false))
     };
     let same_strands = strands(a.x)
@@ -434,7 +433,7 @@ pub fn phi_mn_along(m: &Member, basis: &'static dyn Basis, xs: &[f64]) -> Result
     xs.iter()
         .map(|&x| {
             let name = format!("x = {}", crate::trace::show(x));
-            let site = station::Station { name, x: Some(x), mu: 0.0, mnc: 0.0, mnc_scaled: false, moments: None };
+            let site = station::Station::without_demand(name, x);
             location::location(&p, 0, &site, false).map(|r| r.phi_mn)
         })
         .collect()

@@ -21,6 +21,12 @@ pub struct Station {
 }
 
 impl Station {
+    /// A section at x with no demand: for what depends on the section alone (its
+    /// strand states, its strength).
+    pub fn without_demand(name: String, x: f64) -> Station {
+        Station { name, x: Some(x), mu: 0.0, mnc: 0.0, mnc_scaled: false, moments: None }
+    }
+
     /// Its place along a member of known length.
     pub fn along(&self, length: Option<f64>) -> Option<Along> {
         match (self.x, length) {

@@ -11,15 +11,22 @@ use serde::Serialize;
 /// Curvature is shown as ×10⁻⁶ per unit length.
 const CURVATURE_SCALE: f64 = 1e6;
 
+/// The axes of a plot: ranges, ticks and labels (flattened into the plot's keys).
 #[derive(Serialize)]
-pub struct CurvePlot<'a> {
-    pub location: &'a str,
+pub struct Axes {
     pub x_range: [f64; 2],
     pub y_range: [f64; 2],
     pub x_ticks: Vec<Tick>,
     pub y_ticks: Vec<Tick>,
     pub x_label: String,
     pub y_label: String,
+}
+
+#[derive(Serialize)]
+pub struct CurvePlot<'a> {
+    pub location: &'a str,
+    #[serde(flatten)]
+    pub axes: Axes,
     /// Curvature and moment of each point.
     pub points: Vec<[f64; 2]>,
     pub marks: Vec<MarkShown>,
@@ -84,15 +91,17 @@ pub fn plot<'a>(c: &'a CurveResult, l: &LocationResult, sys: System) -> CurvePlo
     ];
     CurvePlot {
         location: &c.location,
-        x_range: [kmin, kmax],
-        y_range: [mmin, mmax],
-        x_ticks: ticks(kmin * CURVATURE_SCALE, kmax * CURVATURE_SCALE)
-            .into_iter()
-            .map(|t| tick(t / CURVATURE_SCALE, t))
-            .collect(),
-        y_ticks: ticks(mmin, mmax).into_iter().map(|t| tick(t, t)).collect(),
-        x_label: format!("curvature ×10⁻⁶ 1/{}", u.length),
-        y_label: format!("moment {}", u.moment),
+        axes: Axes {
+            x_range: [kmin, kmax],
+            y_range: [mmin, mmax],
+            x_ticks: ticks(kmin * CURVATURE_SCALE, kmax * CURVATURE_SCALE)
+                .into_iter()
+                .map(|t| tick(t / CURVATURE_SCALE, t))
+                .collect(),
+            y_ticks: ticks(mmin, mmax).into_iter().map(|t| tick(t, t)).collect(),
+            x_label: format!("curvature ×10⁻⁶ 1/{}", u.length),
+            y_label: format!("moment {}", u.moment),
+        },
         points: c.points.iter().map(|p| [p.curvature, p.moment]).collect(),
         marks: marks.into_iter().flatten().collect(),
         lines: vec![

@@ -3,7 +3,7 @@
 //! its table prints it, and the capacity diagram (φMn and Mu along the member) ready to
 //! draw: ranges, ticks, the two lines, the end regions and the marked points.
 
-use super::curve::{Tick, tick_label, ticks};
+use super::curve::{Axes, Tick, tick_label, ticks};
 use super::printed;
 use crate::analysis::conclusion::Status;
 use crate::analysis::demand::{Demand, line_shown, pressure_shown};
@@ -124,12 +124,8 @@ pub struct StationShown {
 /// The capacity diagram: x along the member (0 to its length), moments upward.
 #[derive(Serialize)]
 pub struct Diagram {
-    pub x_range: [f64; 2],
-    pub y_range: [f64; 2],
-    pub x_ticks: Vec<Tick>,
-    pub y_ticks: Vec<Tick>,
-    pub x_label: String,
-    pub y_label: String,
+    #[serde(flatten)]
+    pub axes: Axes,
     /// φMn at each station (x, moment), in order of x.
     pub phi_mn: Vec<[f64; 2]>,
     /// The governing factored moment Mu(x), sampled along the member.
@@ -384,12 +380,14 @@ fn diagram(m: &MemberResult, d: &Demand, sys: crate::units::System) -> Diagram {
     });
     let key = KEY.iter().copied().filter(|(l, _)| marks.iter().any(|k| k.label.contains(l))).collect();
     Diagram {
-        x_range: [0.0, len],
-        y_range: [0.0, top],
-        x_ticks: ticks(0.0, len).into_iter().map(|t| Tick { value: t, label: tick_label(t) }).collect(),
-        y_ticks: ticks(0.0, top).into_iter().map(|t| Tick { value: t, label: tick_label(t) }).collect(),
-        x_label: format!("x from the left end ({})", u.length),
-        y_label: format!("moment ({})", u.moment),
+        axes: Axes {
+            x_range: [0.0, len],
+            y_range: [0.0, top],
+            x_ticks: ticks(0.0, len).into_iter().map(|t| Tick { value: t, label: tick_label(t) }).collect(),
+            y_ticks: ticks(0.0, top).into_iter().map(|t| Tick { value: t, label: tick_label(t) }).collect(),
+            x_label: format!("x from the left end ({})", u.length),
+            y_label: format!("moment ({})", u.moment),
+        },
         phi_mn,
         mu,
         bearings: [d.bearing, len - d.bearing],
