@@ -124,6 +124,10 @@ struct MemberJson<'a> {
     /// The loss computation, where a layer's losses are computed.
     #[serde(skip_serializing_if = "Option::is_none")]
     losses: Option<&'a crate::analysis::losses::Losses>,
+    /// Members with loads: the class, the stress limits, the reinforcement at release,
+    /// and whether every stress is within its limit.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    stresses: Option<&'a crate::analysis::stresses::MemberStresses>,
 }
 
 #[derive(Serialize)]
@@ -147,6 +151,9 @@ struct StationJson<'a> {
     /// The x of the station this one mirrors: its derivation is that one's.
     #[serde(skip_serializing_if = "Option::is_none")]
     mirror_of: Option<f64>,
+    /// The stresses at release (where checked), under sustained and under all service
+    /// loads.
+    stresses: &'a [crate::analysis::stresses::StageStress],
 }
 
 fn station_json<'a>(m: &'a MemberResult, s: &'a crate::analysis::StationRow) -> StationJson<'a> {
@@ -165,6 +172,7 @@ fn station_json<'a>(m: &'a MemberResult, s: &'a crate::analysis::StationRow) -> 
         end_region: s.end_region,
         derived_as: s.derived.and_then(|i| m.locations.get(i)).map(|l| l.name.as_str()),
         mirror_of: s.mirror_of,
+        stresses: &s.stresses,
     }
 }
 
@@ -207,12 +215,14 @@ fn member_json(m: &MemberResult) -> MemberJson<'_> {
             .locations
             .iter()
             .flat_map(|l| l.conditions.iter().map(|c| NamedCondition { location: &l.name, condition: c }))
+            .chain(m.conditions.iter().map(|c| NamedCondition { location: "member", condition: c }))
             .collect(),
         top: location_json(m.governing(), true),
         locations: m.locations.iter().map(|l| location_json(l, false)).collect(),
         stations: m.stations.iter().map(|s| station_json(m, s)).collect(),
         prestress: &m.prestress,
         losses: m.losses.as_ref(),
+        stresses: m.stresses.as_ref(),
     }
 }
 
@@ -329,6 +339,7 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
             out.push('\n');
         }
     }
+    out.push_str(&stress_table(a, &u, &mut open));
     if !open.is_empty() {
         out.push_str("Open conditions (the result holds only once each is settled):\n");
         for (k, text) in open.iter().enumerate() {
@@ -348,14 +359,102 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
         }
     }
     if failed > 0 {
-        out.push_str(&format!("{failed} of {n} check locations FAIL.\n"));
+        out.push_str(&format!("Strength: {failed} of {n} check locations FAIL.\n"));
     } else if cond > 0 {
         out.push_str(&format!(
-            "All {n} check locations of {} members meet the checks made here, {cond} of them only on the open conditions above.\n",
+            "Strength: all {n} check locations of {} members meet the checks made here, {cond} of them only on the open conditions above.\n",
             a.members.len()
         ));
     } else {
-        out.push_str(&format!("All {n} check locations of {} members pass.\n", a.members.len()));
+        out.push_str(&format!("Strength: all {n} check locations of {} members pass.\n", a.members.len()));
+    }
+    let checked: Vec<&MemberResult> = a.members.iter().filter(|m| m.stresses.is_some()).collect();
+    let s_failed = checked.iter().filter(|m| m.stresses.as_ref().is_some_and(|s| !s.pass)).count();
+    let s_cond = checked.iter().filter(|m| !m.conditions.is_empty()).count();
+    let k = checked.len();
+    if s_failed > 0 {
+        out.push_str(&format!("Stresses: {s_failed} of {} with loads FAIL.\n", members(k)));
+    } else if s_cond > 0 {
+        out.push_str(&format!(
+            "Stresses: every one of {} with loads meets its limits, {s_cond} only on the open conditions above.\n",
+            members(k)
+        ));
+    } else if k > 0 {
+        out.push_str(&format!("Stresses: every one of {} with loads meets its limits.\n", members(k)));
+    }
+    if k < a.members.len() {
+        out.push_str(&format!(
+            "Stresses not checked: {} without loads (moments given by hand).\n",
+            members(a.members.len() - k)
+        ));
+    }
+    out
+}
+
+/// "1 member", "3 members".
+fn members(n: usize) -> String {
+    if n == 1 { "1 member".into() } else { format!("{n} members") }
+}
+
+/// The members' stresses, one row each (members with loads): the class, the service
+/// tension, the worst stress against its limit at release and in service, the
+/// reinforcement at release; member conditions join the numbered list.
+fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String>) -> String {
+    let mut rows: Vec<Vec<String>> = vec![vec![
+        "member".into(),
+        "class".into(),
+        format!("ft ({})", u.stress),
+        "release: worst stress/limit".into(),
+        "service: worst stress/limit".into(),
+        format!("reinforcement at release ({}²)", u.length),
+        "result".into(),
+    ]];
+    let at = |w: Option<(f64, f64)>| match w {
+        Some((r, x)) => format!("{} at x = {}", crate::trace::ratio_text(r), show(x)),
+        None => "-".into(),
+    };
+    for m in &a.members {
+        let Some(s) = &m.stresses else { continue };
+        let release = match (s.release.checked, s.reinforcement.is_empty()) {
+            (false, _) => "not checked".into(),
+            (true, true) => at(s.worst_release),
+            (true, false) => format!("{} (tension reinforced)", at(s.worst_release)),
+        };
+        let steel =
+            s.reinforcement.iter().map(|r| r.area).fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))));
+        let mut result = if s.pass { "pass".to_string() } else { "FAIL".to_string() };
+        if s.pass && !m.conditions.is_empty() {
+            let mut refs = Vec::new();
+            for c in &m.conditions {
+                open.push(format!("{}: {}", m.id, c.text));
+                refs.push(open.len().to_string());
+            }
+            result = format!("conditional [{}]", refs.join(","));
+        }
+        rows.push(vec![
+            m.id.clone(),
+            s.class.letter().into(),
+            show(s.ft),
+            release,
+            at(Some(s.worst_service)),
+            steel.map_or_else(|| "-".into(), |v| format!("{} (largest)", show(v))),
+            result,
+        ]);
+    }
+    if rows.len() == 1 {
+        return String::new();
+    }
+    let widths: Vec<usize> =
+        (0..rows[0].len()).map(|c| rows.iter().map(|r| r[c].chars().count()).max().unwrap_or(0)).collect();
+    let mut out = "\nStresses at release and in service (tension positive; the worst stress against its limit over the stations):\n".to_string();
+    for (i, r) in rows.iter().enumerate() {
+        let line: Vec<String> = r.iter().enumerate().map(|(c, cell)| format!("{cell:<w$}", w = widths[c])).collect();
+        out.push_str(line.join("  ").trim_end());
+        out.push('\n');
+        if i == 0 {
+            out.push_str(&"-".repeat(widths.iter().sum::<usize>() + 2 * (widths.len() - 1)));
+            out.push('\n');
+        }
     }
     out
 }

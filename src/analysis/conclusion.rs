@@ -52,6 +52,10 @@ pub enum ConditionKind {
     Overcompressed,
     /// The precast unit cracks under the non-composite moment before the topping acts.
     CrackedBeforeComposite,
+    /// Class C in service: the cracked-section stresses and crack control not checked.
+    ClassC,
+    /// The stresses at release not checked (f'ci or the stress after release not given).
+    ReleaseNotChecked,
 }
 
 impl ConditionKind {
@@ -73,6 +77,12 @@ impl ConditionKind {
             }
             ConditionKind::CrackedBeforeComposite => {
                 "the precast unit cracks under the non-composite moment before the topping acts: the cracking moment and the minimum strength need another method"
+            }
+            ConditionKind::ClassC => {
+                "the member is class C in service: its cracked-section stresses and crack control are not checked by this version"
+            }
+            ConditionKind::ReleaseNotChecked => {
+                "the stresses at release are not checked: give f'ci and the stress just after release of each tensioned layer"
             }
         }
     }
@@ -98,7 +108,9 @@ pub enum RuptureCheck<'a> {
 }
 
 /// Settles a location's conditions, status and conclusion from its results.
-pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck) {
+/// `stresses_checked`: the member's stresses at release and in service are checked (its
+/// stress table), which settles what the prestress alone would leave open.
+pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck, stresses_checked: bool) {
     // a conclusion is never written over a number that is not one
     if let Some(conclusion) = not_finite(l) {
         l.status = Status::Fail;
@@ -124,7 +136,13 @@ pub fn settle(l: &mut LocationResult, sys: System, rupture: RuptureCheck) {
             show(STRAND_ELONGATION * 100.0)
         ));
     }
-    conditions.extend(unchecked_stresses(l, &u));
+    if stresses_checked {
+        checked_stresses_note(l, &u);
+        conditions
+            .extend(unchecked_stresses(l, &u).into_iter().filter(|c| c.kind == ConditionKind::CrackedBeforeComposite));
+    } else {
+        conditions.extend(unchecked_stresses(l, &u));
+    }
     l.status = if !pass {
         Status::Fail
     } else if conditions.is_empty() {
@@ -221,6 +239,30 @@ fn strand_rupture(l: &mut LocationResult, u: &UnitNames, rupture: RuptureCheck, 
         ),
     };
     conditions.push(Condition { kind: ConditionKind::StrandRupture, short: rupture_short(l), text });
+}
+
+/// Where the member's stresses are checked, what the prestress alone does here is a
+/// note pointing to them, not an open condition.
+fn checked_stresses_note(l: &mut LocationResult, u: &UnitNames) {
+    let alone = &l.prestress_alone;
+    if alone.top_cracks {
+        l.notes.push(format!(
+            "Under the effective prestress alone the top fibre of the precast unit is in tension, {} {}, beyond fr = {} {}. The member's stresses at release and in service are checked along the member (its stress table): they settle this.",
+            show(alone.top),
+            u.stress,
+            show(alone.fr),
+            u.stress
+        ));
+    }
+    if alone.over_compressed {
+        l.notes.push(format!(
+            "Under the effective prestress alone the bottom fibre's precompression, {} {}, exceeds f'c = {} {}. The member's stresses at release and in service are checked along the member (its stress table): they settle this.",
+            show(-alone.bottom),
+            u.stress,
+            show(alone.fc),
+            u.stress
+        ));
+    }
 }
 
 /// The open conditions of stresses this package does not check: the top fibre cracking

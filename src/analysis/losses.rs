@@ -250,6 +250,7 @@ pub(super) fn compute(p: &Prepared, d: &Demand, tr: &mut Trace) -> Result<(Membe
         }
         record_layer(p, &m.strands[i], jacking, &l, shared, tr);
         out.strands[i].fse = l.fse;
+        out.strands[i].fpi = Some(l.fpi);
         results.push(l);
     }
     tr.rec(|| pe_step(p, &out));

@@ -29,6 +29,7 @@ pub mod roots;
 pub mod solve;
 pub mod station;
 mod strength;
+pub mod stresses;
 
 pub use results::*;
 pub use strength::moment_of;
@@ -160,6 +161,9 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
         })?;
         sites.push(site);
     }
+    // where the stresses are checked along the member, they settle what the prestress
+    // alone leaves open at a section
+    let stresses_checked = demand.is_some() && stresses::release_checked(&p);
     let mut ends = curve::CurveEnds::new(&p);
     let stations = match &demand {
         Some(d) => along_span(&p, d, &mut sites, &mut ends)?,
@@ -178,16 +182,22 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
             r.trace = steps;
             r.demand_from_loads = d.combinations.get(at.combination).map(|c| c.name.clone());
         }
-        settle_with_curve(&mut ends, site, li, &mut r);
+        settle_with_curve(&mut ends, site, li, &mut r, stresses_checked);
         locations.push(r);
     }
+    let mut stations = stations;
+    let stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut tr));
+    let conditions = stresses.as_ref().map_or_else(Vec::new, |s| stress_conditions(s, sys));
     let governing =
         locations.iter().enumerate().max_by(|a, b| a.1.ratio.total_cmp(&b.1.ratio)).map(|(i, _)| i).unwrap_or(0);
-    let pass = locations.iter().all(|l| l.pass) && stations.iter().all(|s| s.pass);
+    let pass =
+        locations.iter().all(|l| l.pass) && stations.iter().all(|s| s.pass) && stresses.as_ref().is_none_or(|s| s.pass);
     let status = locations
         .iter()
         .map(|l| l.status)
         .chain(stations.iter().map(|s| s.status))
+        .chain(conditions.iter().map(|_| conclusion::Status::Conditional))
+        .chain((!pass).then_some(conclusion::Status::Fail))
         .fold(conclusion::Status::Pass, |s, l| s.and(l));
     let geometry = Geometry {
         outline: m.region.outline.clone(),
@@ -230,7 +240,63 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
         prestress: prestress_of(m, losses.as_ref()),
         losses,
         member: computed.map(|(effective, _)| Box::new(effective)),
+        stresses,
+        conditions,
     })
+}
+
+/// The stresses at every station (each row gets its stages), the derivation at the
+/// station governing each stage recorded in the member's trace, and the member's
+/// summary.
+fn stresses_along(
+    p: &prepare::Prepared,
+    d: &demand::Demand,
+    rows: &mut [StationRow],
+    tr: &mut Trace,
+) -> stresses::MemberStresses {
+    let xs: Vec<f64> = rows.iter().map(|r| r.x).collect();
+    let (summary, per_station) = stresses::of_member(p, d, &xs, tr);
+    for (row, st) in rows.iter_mut().zip(per_station) {
+        row.stresses = st;
+    }
+    for stage in ["release", "sustained", "service"] {
+        let worst = (rows.iter())
+            .filter_map(|r| r.stresses.iter().find(|s| s.stage == stage).map(|s| (r.x, s)))
+            .max_by(|a, b| a.1.worst().total_cmp(&b.1.worst()));
+        if let Some((x, s)) = worst {
+            stresses::record_station(p, d, x, s, tr);
+        }
+    }
+    summary
+}
+
+/// The member's open conditions from its stresses: class C, and release not checked.
+fn stress_conditions(s: &stresses::MemberStresses, sys: System) -> Vec<conclusion::Condition> {
+    use conclusion::{Condition, ConditionKind};
+    let mut out = Vec::new();
+    if s.class == stresses::Class::C {
+        out.push(Condition {
+            kind: ConditionKind::ClassC,
+            short: format!("class C: ft = {} {}", crate::trace::show(s.ft), sys.names().stress),
+            text: format!(
+                "The largest service tension at the bottom, {} {} at x = {} {}, exceeds the class T bound {} {}: the member is class C. Its stresses on the cracked transformed section and the crack control of the code are not checked by this version.",
+                crate::trace::show(s.ft),
+                sys.names().stress,
+                crate::trace::show(s.ft_x),
+                sys.names().length,
+                crate::trace::show(s.ft_t),
+                sys.names().stress
+            ),
+        });
+    }
+    if let Some(why) = &s.release.why_not {
+        out.push(Condition {
+            kind: ConditionKind::ReleaseNotChecked,
+            short: "stresses at release not checked".into(),
+            text: format!("The stresses at release are not checked: {why}."),
+        });
+    }
+    out
 }
 
 /// Each layer's prestress as the package and the JSON report it: where it comes from,
@@ -273,14 +339,20 @@ fn prestress_of(m: &Member, losses: Option<&losses::Losses>) -> Vec<LayerPrestre
 
 /// Settles a section's words, asking its moment-curvature curve where strand is strained
 /// beyond its elongation (whether it ruptures before the demand is carried).
-fn settle_with_curve(ends: &mut curve::CurveEnds, site: &station::Station, li: usize, r: &mut LocationResult) {
+fn settle_with_curve(
+    ends: &mut curve::CurveEnds,
+    site: &station::Station,
+    li: usize,
+    r: &mut LocationResult,
+    stresses_checked: bool,
+) {
     let sys = ends.units();
     let check = match r.rupture_risk.then(|| ends.end_of(site, li)) {
         None => conclusion::RuptureCheck::NotAsked,
         Some(Ok(c)) => conclusion::RuptureCheck::Curve(c),
         Some(Err(e)) => conclusion::RuptureCheck::Failed(e.clone()),
     };
-    conclusion::settle(r, sys, check);
+    conclusion::settle(r, sys, check, stresses_checked);
 }
 
 /// Every station along the span, as a table row; the governing station and the critical
@@ -322,7 +394,7 @@ fn along_span(
     for (x, what) in station::positions(m, d.span, d.bearing, &lengths, &points) {
         let site = at(x, format!("x = {} {}", crate::trace::show(x), p.sys.names().length));
         let mut r = location::location(p, 0, &site, false)?;
-        settle_with_curve(ends, &site, 0, &mut r);
+        settle_with_curve(ends, &site, 0, &mut r, stresses::release_checked(p));
         let mo = site.moments.as_ref().map_or_else(|| d.at(x), |mo| mo.clone());
         let end_region = if x <= region {
             Some(crate::input::model::End::Left)
@@ -351,6 +423,7 @@ fn along_span(
             derived: None,
             role: None,
             mirror_of: None,
+            stresses: Vec::new(),
         });
     }
     // the governing station, then the critical station of each end region

@@ -270,6 +270,10 @@ pub struct MemberResult {
     /// `member()`).
     #[serde(skip)]
     pub member: Option<Box<crate::input::model::Member>>,
+    /// The stresses at release and in service and the class (members with loads).
+    pub stresses: Option<super::stresses::MemberStresses>,
+    /// The member's own open conditions (of its stresses), beside its locations'.
+    pub conditions: Vec<conclusion::Condition>,
 }
 
 /// One station along the span: its demand and its design strength (shown units).
@@ -304,6 +308,9 @@ pub struct StationRow {
     /// of a member symmetric about the middle of its length): same strand states,
     /// moments and strength, so its derivation is that station's.
     pub mirror_of: Option<f64>,
+    /// The stresses here at release (where checked), under sustained and under all
+    /// service loads.
+    pub stresses: Vec<super::stresses::StageStress>,
 }
 
 impl MemberResult {

@@ -2,7 +2,7 @@
 //! same clauses in SI units) for SI packages. Every formula here is the code's, in the
 //! package's units: ksi (psi inside the square-root formulas) or MPa.
 
-use super::{Basis, Branch, Clause, Combination, Control};
+use super::{Basis, Branch, Clause, Combination, Control, ReleaseLimits};
 use crate::trace::{Symbol, f::*};
 use crate::units::System;
 
@@ -68,6 +68,12 @@ impl Basis for Aci318 {
             Clause::ApproximateFps => "20.3.2.3.1",
             Clause::LoadCombinations => "5.3.1, Table 5.3.1",
             Clause::ReducedLiveFactor => "5.3.3",
+            Clause::ReleaseCompression => "24.5.3.1, Table 24.5.3.1",
+            Clause::ReleaseTension => "24.5.3.2, Table 24.5.3.2",
+            Clause::ReleaseReinforcement => "24.5.3.2.1",
+            Clause::ServiceCompression => "24.5.4.1, Table 24.5.4.1",
+            Clause::MemberClass => "24.5.2.1, Table 24.5.2.1",
+            Clause::ServiceCombinations => "24.5.1 (service loads); combinations of ASCE/SEI 7-16 2.4.1",
         }
     }
 
@@ -281,6 +287,89 @@ impl Basis for Aci318 {
             System::Us => (0.5, "ACI 318-19 5.3.3 (not for garages, places of public assembly, or L > 100 psf)"),
             System::Si => (0.5, "ACI 318M-19 5.3.3 (not for garages, places of public assembly, or L > 4.8 kN/m²)"),
         }
+    }
+
+    /// Table 24.5.3.1: 0.60 f'ci, 0.70 f'ci at the ends of simply supported members;
+    /// Table 24.5.3.2: 3 sqrt(f'ci), 6 sqrt(f'ci) at the ends (psi); in 318M-19 0.25 and
+    /// 0.50 sqrt(f'ci) (MPa). From memory.
+    fn release_limits(&self, fci: f64) -> ReleaseLimits {
+        let (t, t_end) = match self.sys {
+            System::Us => (3.0, 6.0),
+            System::Si => (0.25, 0.5),
+        };
+        let root = self.root_unit(fci).sqrt();
+        let back = self.root_unit(1.0);
+        ReleaseLimits {
+            compression: 0.60 * fci,
+            compression_end: 0.70 * fci,
+            tension: t * root / back,
+            tension_end: t_end * root / back,
+        }
+    }
+
+    fn release_limits_text(&self) -> &'static str {
+        match self.sys {
+            System::Us => {
+                "compression 0.60 f'ci, 0.70 f'ci at the ends of simply supported members; tension 3 √f'ci, 6 √f'ci at the ends (psi)"
+            }
+            System::Si => {
+                "compression 0.60 f'ci, 0.70 f'ci at the ends of simply supported members; tension 0.25 √f'ci, 0.50 √f'ci at the ends (MPa)"
+            }
+        }
+    }
+
+    /// 24.5.3.2.1: the reinforcement resists the tensile force at 0.6 fy, not more than
+    /// 30 ksi (210 MPa). From memory.
+    fn release_steel_stress(&self, fy: f64) -> (f64, &'static str) {
+        match self.sys {
+            System::Us => ((0.6 * fy).min(30.0), "0.6 fy, not more than 30 ksi"),
+            System::Si => ((0.6 * fy).min(210.0), "0.6 fy, not more than 210 MPa"),
+        }
+    }
+
+    /// Table 24.5.4.1 (classes U and T): 0.45 f'c under prestress and sustained load,
+    /// 0.60 f'c under prestress and all load. From memory.
+    fn service_compression(&self) -> (f64, f64) {
+        (0.45, 0.60)
+    }
+
+    /// Table 24.5.2.1: class U ft <= 7.5 sqrt(f'c), class T up to 12 sqrt(f'c) (psi);
+    /// 0.62 and 1.0 sqrt(f'c) in 318M-19 (MPa). From memory.
+    fn class_limits(&self, fc: f64) -> (f64, f64) {
+        let (u, t) = match self.sys {
+            System::Us => (7.5, 12.0),
+            System::Si => (0.62, 1.0),
+        };
+        let root = self.root_unit(fc).sqrt();
+        let back = self.root_unit(1.0);
+        (u * root / back, t * root / back)
+    }
+
+    fn class_limits_text(&self) -> &'static str {
+        match self.sys {
+            System::Us => "class U: ft ≤ 7.5 √f'c; class T: 7.5 √f'c < ft ≤ 12 √f'c; class C: ft > 12 √f'c (psi)",
+            System::Si => "class U: ft ≤ 0.62 √f'c; class T: 0.62 √f'c < ft ≤ 1.0 √f'c; class C: ft > 1.0 √f'c (MPa)",
+        }
+    }
+
+    /// ASCE/SEI 7-16 2.4.1 (allowable stress combinations, gravity loads; from memory):
+    /// D + L; D + (Lr or S); D + 0.75L + 0.75(Lr or S). ACI 318 checks the stresses under
+    /// service loads without factors of its own.
+    fn service_combinations(&self, present: [bool; 4]) -> Vec<Combination> {
+        let [_, _, roof, snow] = present;
+        let mut out = vec![Combination { name: "D + L".into(), factors: [1.0, 1.0, 0.0, 0.0] }];
+        for (on, k, sym) in [(roof, 2, "Lr"), (snow, 3, "S")] {
+            if !on {
+                continue;
+            }
+            let mut alone = [1.0, 0.0, 0.0, 0.0];
+            alone[k] = 1.0;
+            out.push(Combination { name: format!("D + {sym}"), factors: alone });
+            let mut with = [1.0, 0.75, 0.0, 0.0];
+            with[k] = 0.75;
+            out.push(Combination { name: format!("D + 0.75L + 0.75{sym}"), factors: with });
+        }
+        out
     }
 }
 

@@ -77,6 +77,28 @@ pub enum Clause {
     LoadCombinations,
     /// The reduced live-load factor.
     ReducedLiveFactor,
+    /// The compressive stress limits at release.
+    ReleaseCompression,
+    /// The tensile stress limits at release.
+    ReleaseTension,
+    /// The bonded reinforcement where the tension at release exceeds its limit.
+    ReleaseReinforcement,
+    /// The compressive stress limits in service.
+    ServiceCompression,
+    /// The classes U, T and C by the service tension in the precompressed tensile zone.
+    MemberClass,
+    /// The service (unfactored) load combinations for the stresses.
+    ServiceCombinations,
+}
+
+/// The stress limits at release, as sizes (compression and tension both positive): away
+/// from the member's ends and at them.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct ReleaseLimits {
+    pub compression: f64,
+    pub compression_end: f64,
+    pub tension: f64,
+    pub tension_end: f64,
 }
 
 /// A strength load combination: its name as the code numbers it and its factors on
@@ -182,6 +204,23 @@ pub trait Basis: Send + Sync {
     /// The reduced live-load factor the code permits, and its clause with the cases
     /// where it is not permitted.
     fn reduced_live_factor(&self) -> (f64, &'static str);
+    /// The stress limits at release of a simply supported member, from f'ci.
+    fn release_limits(&self, fci: f64) -> ReleaseLimits;
+    /// The words of the release limits ("0.60 f'ci, 0.70 f'ci at the ends; 3 sqrt(f'ci)...").
+    fn release_limits_text(&self) -> &'static str;
+    /// The stress the bonded reinforcement of the tension zone at release is taken at,
+    /// from its fy, with the words of the rule.
+    fn release_steel_stress(&self, fy: f64) -> (f64, &'static str);
+    /// The compressive stress limits in service as shares of f'c: under the prestress
+    /// and the sustained loads, and under the prestress and all loads.
+    fn service_compression(&self) -> (f64, f64);
+    /// The upper bounds of the service tension ft of classes U and T, from f'c.
+    fn class_limits(&self, fc: f64) -> (f64, f64);
+    /// The words of the class bounds ("7.5 sqrt(f'c) and 12 sqrt(f'c), psi").
+    fn class_limits_text(&self) -> &'static str;
+    /// The unfactored combinations of gravity loads for the service stresses, for the
+    /// loads present (in [`crate::input::model::LoadKind::ALL`]'s order).
+    fn service_combinations(&self, present: [bool; 4]) -> Vec<Combination>;
 }
 
 /// The bases this version knows, as the input selects them.

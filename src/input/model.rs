@@ -269,6 +269,9 @@ pub struct StrandLayer {
     pub model: Model,
     pub fse: f64,
     pub fse_source: FseSource,
+    /// The stress just after release, where known: given (with fse or losses given) or
+    /// filled in by the loss method (computed losses).
+    pub fpi: Option<f64>,
     pub debonded_length: f64,
 }
 
@@ -434,6 +437,20 @@ pub struct Member {
     pub release: Option<Release>,
     /// The loss method, where a layer takes computed losses.
     pub losses: Option<LossMethod>,
+    /// What the stress checks ask of the engineer.
+    pub stresses: StressOptions,
+}
+
+/// The options of the stress checks at release and in service.
+#[derive(Debug, Clone, Copy, Serialize)]
+pub struct StressOptions {
+    /// Share of the live load that is sustained (0 to 1).
+    pub sustained_live: f64,
+    /// Provide the bonded reinforcement of the tension zone where the tension at release
+    /// exceeds its limit (else such tension fails the member).
+    pub release_reinforcement: bool,
+    /// Yield strength of that reinforcement.
+    pub reinforcement_fy: f64,
 }
 
 impl Member {

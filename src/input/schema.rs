@@ -108,6 +108,16 @@ pub struct Member {
     pub bars: Vec<Bars>,
     pub curve: Option<CurveOptions>,
     pub losses: Option<Losses>,
+    pub stresses: Option<Stresses>,
+}
+
+/// What the stress checks at release and in service ask of the engineer.
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Stresses {
+    pub sustained_live: Option<f64>,
+    pub release_reinforcement: Option<bool>,
+    pub reinforcement_fy: Option<Q>,
 }
 
 /// Service loads on a member: area loads ("20 psf", "1.0 kPa") times the tributary
@@ -252,6 +262,7 @@ pub struct Strands {
     pub fse: Option<Q>,
     pub jacking: Option<f64>,
     pub losses: Option<Q>,
+    pub fpi: Option<Q>,
     pub model: Option<String>,
     pub debonded_length: Option<Q>,
 }

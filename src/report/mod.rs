@@ -83,6 +83,7 @@ pub struct Prepared {
 struct FrontMatter {
     head: Head,
     summary: Vec<SummaryRow>,
+    stress_summary: Vec<payload::StressSummaryRow>,
     open_items: Vec<OpenItem>,
     open_kinds: Vec<OpenKind>,
     conditional_locations: usize,
@@ -109,6 +110,7 @@ pub fn prepare(pkg: &Package, src: &Source, a: &Analysis, templates: &Templates)
         contents: view::contents(&p.members),
         head: p.head,
         summary: p.summary,
+        stress_summary: p.stress_summary,
         open_items: p.open_items,
         open_kinds: p.open_kinds,
     };

@@ -15,6 +15,7 @@ const BUILTIN: &[(&str, &str)] = &[
     ("figures.typ", include_str!("../../templates/figures.typ")),
     ("curve.typ", include_str!("../../templates/curve.typ")),
     ("demand.typ", include_str!("../../templates/demand.typ")),
+    ("stresses.typ", include_str!("../../templates/stresses.typ")),
 ];
 
 /// Names the world reserves for the package's data.

@@ -90,6 +90,7 @@ pub fn package(pkg: &Package, src: &Source, job: Prepared, templates: &Templates
     let view = PackageView {
         head: &f.head,
         summary: &f.summary,
+        stress_summary: &f.stress_summary,
         open_items: &f.open_items,
         open_kinds: &f.open_kinds,
         conditional_locations: f.conditional_locations,

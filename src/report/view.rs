@@ -72,6 +72,7 @@ pub struct PackageView<'a> {
     #[serde(flatten)]
     pub head: &'a Head,
     pub summary: &'a [SummaryRow],
+    pub stress_summary: &'a [super::payload::StressSummaryRow],
     pub open_items: &'a [OpenItem],
     pub open_kinds: &'a [OpenKind],
     /// How many locations are adequate only on open conditions.
@@ -87,6 +88,8 @@ pub struct ContentsEntry {
     pub description: String,
     /// The member has loads: its demand sheet and capacity diagram are listed too.
     pub has_demand: bool,
+    /// Whether it has a stress sheet (a member with loads).
+    pub has_stresses: bool,
     pub locations: Vec<ContentsLocation>,
 }
 
@@ -179,6 +182,7 @@ pub fn contents(members: &[MemberPayload]) -> Vec<ContentsEntry> {
             id: m.shown.id.to_string(),
             description: m.shown.description.to_string(),
             has_demand: m.shown.demand.is_some(),
+            has_stresses: m.shown.stresses.is_some(),
             locations: m
                 .locations
                 .iter()
@@ -246,6 +250,9 @@ mod tests {
         "package.hogging",
         "package.losses_computed",
         "package.losses_given",
+        "package.stresses_checked",
+        "package.stresses_service_only",
+        "package.stresses_unchecked",
         "package.signoffs[].role",
         "package.signoffs[].name",
         "package.signoffs[].license",
@@ -502,6 +509,78 @@ mu = 300.0
         assert!(entries[0].has_demand && !entries[1].has_demand);
     }
 
+    /// The keys stresses.typ reads of a member whose stresses are checked (with the
+    /// bonded reinforcement at release).
+    const STRESSES: &[&str] = &[
+        "members[].has_stresses",
+        "members[].stresses.class",
+        "members[].stresses.class_text",
+        "members[].stresses.release_checked",
+        "members[].stresses.release_why_not",
+        "members[].stresses.release_limits",
+        "members[].stresses.service_limits",
+        "members[].stresses.combinations",
+        "members[].stresses.sustained_live",
+        "members[].stresses.has_topping",
+        "members[].stresses.rows[].x",
+        "members[].stresses.rows[].end_zone",
+        "members[].stresses.rows[].release[].text",
+        "members[].stresses.rows[].release[].over",
+        "members[].stresses.rows[].sustained[].text",
+        "members[].stresses.rows[].service[].over",
+        "members[].stresses.rows[].topping",
+        "members[].stresses.rows[].worst",
+        "members[].stresses.rows[].result",
+        "members[].stresses.reinforcement[].x",
+        "members[].stresses.reinforcement[].fibre",
+        "members[].stresses.reinforcement[].force",
+        "members[].stresses.reinforcement[].fs",
+        "members[].stresses.reinforcement[].area",
+        "members[].stresses.reinforcement_fy",
+        "members[].stresses.reinforcement_rule",
+        "members[].stresses.worst_release",
+        "members[].stresses.worst_service",
+        "members[].stresses.clauses.release",
+        "members[].stresses.clauses.reinforcement",
+        "members[].stresses.clauses.service",
+        "members[].stresses.clauses.class",
+        "members[].stresses.clauses.combinations",
+        "members[].stresses.plot.x_range",
+        "members[].stresses.plot.y_range",
+        "members[].stresses.plot.x_ticks[].value",
+        "members[].stresses.plot.y_ticks[].label",
+        "members[].stresses.plot.x_label",
+        "members[].stresses.plot.y_label",
+        "members[].stresses.plot.bearings",
+        "members[].stresses.plot.lines[].points",
+        "members[].stresses.plot.lines[].stage",
+        "members[].stresses.plot.lines[].fibre",
+        "members[].stresses.plot.limits[].points",
+        "members[].stresses.plot.limits[].stage",
+    ];
+
+    #[test]
+    fn a_member_with_checked_stresses_has_its_stress_sheet_in_the_view() {
+        let text = include_str!("../../examples/inverted-tee-girder.toml");
+        let src = crate::input::Source { name: "girders.toml".into(), text: text.into() };
+        let pkg = crate::input::parse(&src).unwrap();
+        let a = crate::analysis::analyze_full(&pkg).unwrap();
+        let p = payload::build(&pkg, &src, &a, &Provenance { templates: "builtin" });
+        // LB-7 carries its tension at release with bonded reinforcement
+        let members = MembersView { head: &p.head, first: 1, members: super::members(&p.members[1..2]) };
+        let entries = contents(&p.members[1..2]);
+        let v = serde_json::json!({ "members": serde_json::to_value(&members).unwrap()["members"], "has": entries });
+        let mut found = std::collections::BTreeSet::new();
+        paths(&v, "", &mut found);
+        let wanted: Vec<String> = STRESSES
+            .iter()
+            .map(|k| if *k == "members[].has_stresses" { "has[].has_stresses".to_string() } else { k.to_string() })
+            .collect();
+        let missing: Vec<&String> = wanted.iter().filter(|k| !found.contains(k.as_str())).collect();
+        assert!(missing.is_empty(), "the stress sheet's view lacks {missing:?}");
+        assert!(p.stress_summary.iter().any(|r| r.member == "LB-7" && r.reinforcement != "—"));
+    }
+
     /// The keys curve.typ reads of a member's plot.
     const CURVE: &[&str] = &[
         "members[].curve.location",
@@ -556,6 +635,7 @@ mu = 300.0
         "members[].id",
         "members[].description",
         "members[].has_demand",
+        "members[].has_stresses",
         "members[].locations[].name",
         "members[].locations[].shown.x_label",
         "members[].locations[].shown.mu",
@@ -578,6 +658,7 @@ mu = 300.0
         let package = PackageView {
             head: &p.head,
             summary: &p.summary,
+            stress_summary: &p.stress_summary,
             open_items: &p.open_items,
             open_kinds: &p.open_kinds,
             conditional_locations: conditional_locations(&p.summary),

@@ -180,6 +180,7 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     let member_length = length.or(loads.as_ref().map(|l| l.span));
     let losses = losses::method(cx, m, &strands, release.as_ref(), loads.is_some(), member_length)?;
     let curve = curve_options(cx, m)?;
+    let stresses = stresses::options(cx, m, loads.is_some())?;
     // dedup defaults (several layers may take the same one)
     let mut seen: Vec<Default> = Vec::new();
     for d in defaults {
@@ -205,6 +206,7 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
         defaults: seen,
         release,
         losses,
+        stresses,
     })
 }
 

@@ -9,6 +9,7 @@ mod member;
 mod meta;
 mod shape;
 mod steel;
+mod stresses;
 
 use super::locate::Seg;
 use super::model::*;

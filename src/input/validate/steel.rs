@@ -116,6 +116,7 @@ pub(super) fn strand_layer(
         }
     };
     let (fse, fse_source) = strand_prestress(cx, s, fpu, fpy, defaults)?;
+    let fpi = stress_at_release(cx, s, fse, fse_source, fpu)?;
     let debonded_length = match &s.debonded_length {
         Some(_) => {
             let limit = length.map_or(ranges(cx.sys).length_max, |l| l / 2.0);
@@ -137,7 +138,54 @@ pub(super) fn strand_layer(
             return None;
         }
     }
-    Some(StrandLayer { profile, count, diameter, area, size, fpu, fpy, grade, model, fse, fse_source, debonded_length })
+    Some(StrandLayer {
+        profile,
+        count,
+        diameter,
+        area,
+        size,
+        fpu,
+        fpy,
+        grade,
+        model,
+        fse,
+        fse_source,
+        fpi,
+        debonded_length,
+    })
+}
+
+/// The stress just after release where the layer gives it (`fpi`): allowed beside a
+/// given fse or given losses, from fse up to fpj (or fpu where fpj is not known); a
+/// layer whose losses are computed takes it from the loss method. `Some(None)` where
+/// it is not given.
+fn stress_at_release(cx: &mut Ctx, s: &raw::Strands, fse: f64, source: FseSource, fpu: f64) -> Option<Option<f64>> {
+    if s.fpi.is_none() {
+        return Some(None);
+    }
+    let (hi, hi_name) = match source {
+        FseSource::Computed { .. } => {
+            cx.problem(
+                "fpi",
+                "fpi is given on a layer whose losses are computed: the loss method gives the stress after release",
+                Some("fpi only beside fse or losses; or fse and losses left to the method".to_string()),
+            );
+            return None;
+        }
+        FseSource::Losses { fpj, .. } => (fpj, "fpj"),
+        FseSource::Given => (fpu, "fpu"),
+    };
+    let v = cx.quantity("fpi", &s.fpi, Dim::Stress)?;
+    if !(v >= fse && v <= hi) || fse <= 0.0 {
+        let allowed = if fse <= 0.0 {
+            "no fpi on an untensioned layer (fse = 0)".to_string()
+        } else {
+            format!("fse <= fpi <= {hi_name}: {} to {}", cx.shown(Dim::Stress, fse), cx.shown(Dim::Stress, hi))
+        };
+        cx.problem("fpi", format!("fpi = {} is out of range", cx.shown(Dim::Stress, v)), Some(allowed));
+        return None;
+    }
+    Some(Some(v))
 }
 
 /// The layer's level: straight at a depth from the top of the precast unit (or a height

@@ -60,6 +60,9 @@ pub struct MemberShown<'a> {
     /// The demand sheet, the capacity diagram and the station table (members with loads).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub demand: Option<DemandShown>,
+    /// The stress sheet (members with loads).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub stresses: Option<super::stresses::StressesShown>,
 }
 
 /// The section's overall dimensions, with their unit.
@@ -139,6 +142,7 @@ pub fn member<'a>(m: &'a MemberResult, input: &'a Member, basis: &dyn Basis) -> 
         curve: m.curve.as_ref().map(|c| plot(c, m.governing(), sys)),
         curve_error: m.curve_error.as_deref(),
         demand: m.demand.as_ref().map(|d| demand(m, d, basis)),
+        stresses: m.stresses.as_ref().map(|s| super::stresses::stresses(m, s, basis, input.stresses.reinforcement_fy)),
     };
     MemberPayload {
         shown,

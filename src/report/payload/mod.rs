@@ -16,6 +16,7 @@ mod member;
 pub mod omit;
 mod step;
 mod stored;
+mod stresses;
 
 pub use curve::{CurvePlot, Line, MarkShown, Tick};
 pub use demand::{DemandShown, Diagram, StationShown};
@@ -38,6 +39,8 @@ pub struct Payload<'a> {
     #[serde(flatten)]
     pub head: Head,
     pub summary: Vec<SummaryRow>,
+    /// One row per member whose stresses are checked.
+    pub stress_summary: Vec<StressSummaryRow>,
     /// Every open condition of the package (the back matter lists them all).
     pub open_items: Vec<OpenItem>,
     /// The open conditions by kind, for the cover.
@@ -128,6 +131,14 @@ pub struct PackageShown {
     /// fse or losses are given.
     pub losses_computed: Vec<String>,
     pub losses_given: Vec<String>,
+    /// Members whose stresses are checked at release and in service; in service only
+    /// (the release stage lacks f'ci or fpi); not at all (no loads).
+    #[serde(default)]
+    pub stresses_checked: Vec<String>,
+    #[serde(default)]
+    pub stresses_service_only: Vec<String>,
+    #[serde(default)]
+    pub stresses_unchecked: Vec<String>,
 }
 
 #[derive(Serialize, Deserialize, Clone)]
@@ -181,6 +192,45 @@ pub struct SummaryRow {
     pub governing: bool,
 }
 
+/// A member's stresses in the summary: its class, the worst stress against its limit at
+/// release and in service, the largest reinforcement at release, and its result.
+#[derive(Serialize)]
+pub struct StressSummaryRow {
+    /// The member's position in the package (for the link to its stress sheet).
+    pub index: usize,
+    pub member: String,
+    pub class: &'static str,
+    pub release: String,
+    pub service: String,
+    pub reinforcement: String,
+    pub pass: bool,
+    pub caution: bool,
+}
+
+fn stress_summary(a: &Analysis) -> Vec<StressSummaryRow> {
+    let at = |w: (f64, f64)| format!("{} at x = {}", ratio_text(w.0), printed(w.1));
+    (a.members.iter().enumerate())
+        .filter_map(|(index, m)| {
+            let s = m.stresses.as_ref()?;
+            let steel = s.reinforcement.iter().map(|r| r.area).fold(0.0, f64::max);
+            Some(StressSummaryRow {
+                index,
+                member: m.id.clone(),
+                class: s.class.letter(),
+                release: if s.release.checked {
+                    s.worst_release.map_or_else(|| "—".into(), at)
+                } else {
+                    "not checked".into()
+                },
+                service: at(s.worst_service),
+                reinforcement: if s.reinforcement.is_empty() { "—".into() } else { printed(steel) },
+                pass: s.pass,
+                caution: !m.conditions.is_empty(),
+            })
+        })
+        .collect()
+}
+
 /// An open condition, where it is.
 #[derive(Serialize)]
 pub struct OpenItem {
@@ -214,6 +264,7 @@ pub fn build<'a>(pkg: &'a Package, src: &Source, a: &'a Analysis, prov: &Provena
     Payload {
         head: head(pkg, src, a, prov),
         summary: summary(a),
+        stress_summary: stress_summary(a),
         open_items: open_items(a),
         open_kinds: open_kinds(a),
         members,
@@ -279,6 +330,9 @@ fn package_shown(meta: &Meta, a: &Analysis) -> PackageShown {
         hogging: ids(&|m| m.demand.as_ref().is_some_and(|d| d.hogging > 0.0)),
         losses_computed: ids(&|m| m.prestress.iter().any(|l| l.source == "computed")),
         losses_given: ids(&|m| m.prestress.iter().any(|l| l.source != "computed")),
+        stresses_checked: ids(&|m| m.stresses.as_ref().is_some_and(|s| s.release.checked)),
+        stresses_service_only: ids(&|m| m.stresses.as_ref().is_some_and(|s| !s.release.checked)),
+        stresses_unchecked: ids(&|m| m.stresses.is_none()),
         title: meta.title.clone(),
         project: meta.project.clone(),
         project_number: meta.project_number.clone(),
@@ -379,6 +433,12 @@ fn open_items(a: &Analysis) -> Vec<OpenItem> {
                 short: c.short.clone(),
             }));
         }
+        out.extend(m.conditions.iter().map(|c| OpenItem {
+            member: m.id.clone(),
+            location: "stresses".into(),
+            kind: c.kind,
+            short: c.short.clone(),
+        }));
     }
     out
 }
@@ -389,13 +449,12 @@ fn open_kinds(a: &Analysis) -> Vec<OpenKind> {
     const SHOWN: usize = 4;
     let mut kinds: Vec<(ConditionKind, Vec<String>)> = Vec::new();
     for m in &a.members {
-        for l in &m.locations {
-            for c in &l.conditions {
-                let at = format!("{} · {}", m.id, l.name);
-                match kinds.iter_mut().find(|(k, _)| *k == c.kind) {
-                    Some((_, list)) => list.push(at),
-                    None => kinds.push((c.kind, vec![at])),
-                }
+        let named = m.locations.iter().flat_map(|l| l.conditions.iter().map(move |c| (l.name.as_str(), c)));
+        for (name, c) in named.chain(m.conditions.iter().map(|c| ("stresses", c))) {
+            let at = format!("{} · {}", m.id, name);
+            match kinds.iter_mut().find(|(k, _)| *k == c.kind) {
+                Some((_, list)) => list.push(at),
+                None => kinds.push((c.kind, vec![at])),
             }
         }
     }

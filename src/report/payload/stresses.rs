@@ -1,0 +1,279 @@
+//! A member's stresses in the payload: the limits and the class as the stress sheet
+//! prints them, a row per station, the reinforcement at release, and the plot of the
+//! top and bottom stresses along the member against their limits.
+
+use super::curve::{Axes, Tick, tick_label, ticks};
+use super::printed;
+use crate::analysis::stresses::{Fibre, MemberStresses, StageStress};
+use crate::analysis::{MemberResult, StationRow};
+use crate::basis::{Basis, Clause};
+use crate::trace::ratio_text;
+use serde::Serialize;
+
+/// What the stress sheet prints.
+#[derive(Serialize)]
+pub struct StressesShown {
+    pub pass: bool,
+    pub class: &'static str,
+    /// The class found, in words with its numbers.
+    pub class_text: String,
+    pub release_checked: bool,
+    pub release_why_not: Option<String>,
+    /// Label and value rows of the limits.
+    pub release_limits: Vec<(String, String)>,
+    pub service_limits: Vec<(String, String)>,
+    pub combinations: String,
+    pub sustained_live: String,
+    pub has_topping: bool,
+    pub rows: Vec<StressRow>,
+    pub reinforcement: Vec<ReinforcementRow>,
+    pub reinforcement_fy: String,
+    pub reinforcement_rule: &'static str,
+    pub worst_release: Option<String>,
+    pub worst_service: String,
+    pub clauses: Clauses,
+    pub plot: StressPlot,
+}
+
+/// The clauses the sheet cites, in full.
+#[derive(Serialize)]
+pub struct Clauses {
+    pub release: String,
+    pub reinforcement: String,
+    pub service: String,
+    pub class: String,
+    pub combinations: String,
+}
+
+/// A stress printed, and whether it is beyond its limit.
+#[derive(Serialize)]
+pub struct Cell {
+    pub text: String,
+    pub over: bool,
+}
+
+/// One station's stresses: at release (top, bottom), sustained and all service loads
+/// (top, bottom; the topping's top under all loads), and the worst ratio to a limit.
+#[derive(Serialize)]
+pub struct StressRow {
+    pub x: String,
+    pub end_zone: bool,
+    pub release: Option<[Cell; 2]>,
+    pub sustained: [Cell; 2],
+    pub service: [Cell; 2],
+    pub topping: Option<Cell>,
+    pub worst: String,
+    /// "ok", "reinforced" (tension at release carried by bonded bars) or "FAIL".
+    pub result: &'static str,
+}
+
+#[derive(Serialize)]
+pub struct ReinforcementRow {
+    pub x: String,
+    pub fibre: &'static str,
+    pub force: String,
+    pub fs: String,
+    pub area: String,
+}
+
+/// The top and bottom stresses along the member at release and under all service loads,
+/// with the limits as steps.
+#[derive(Serialize)]
+pub struct StressPlot {
+    #[serde(flatten)]
+    pub axes: Axes,
+    pub lines: Vec<PlotLine>,
+    pub limits: Vec<PlotLine>,
+    pub bearings: [f64; 2],
+}
+
+#[derive(Serialize)]
+pub struct PlotLine {
+    pub name: String,
+    /// "release" or "service": the colour; "top" or "bottom": the stroke.
+    pub stage: &'static str,
+    pub fibre: &'static str,
+    pub points: Vec<[f64; 2]>,
+}
+
+fn cell(f: &Fibre) -> Cell {
+    Cell { text: printed(f.stress), over: !f.ok() }
+}
+
+/// The stress sheet of a member whose stresses are checked.
+pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinforcement_fy: f64) -> StressesShown {
+    let sys = basis.units();
+    let u = sys.names();
+    let st = |v: f64| format!("{} {}", printed(v), u.stress);
+    let rows: Vec<StressRow> = m.stations.iter().map(|r| row(r, s)).collect();
+    let mut release_limits = Vec::new();
+    if let (Some(l), Some(fci)) = (&s.release.limits, s.release.fci) {
+        release_limits = vec![
+            ("f'ci".to_string(), st(fci)),
+            ("Compression (at the ends)".to_string(), format!("{} ({})", st(l.compression), st(l.compression_end))),
+            ("Tension (at the ends)".to_string(), format!("{} ({})", st(l.tension), st(l.tension_end))),
+            (
+                "End zone, from each end".to_string(),
+                format!("{} {}", printed(s.release.end_zone.unwrap_or(0.0)), u.length),
+            ),
+        ];
+    }
+    let sl = &s.service.limits;
+    let mut service_limits = vec![
+        ("Compression, sustained loads".to_string(), st(sl.sustained)),
+        ("Compression, all loads".to_string(), st(sl.total)),
+    ];
+    if let (Some(a), Some(b)) = (sl.topping_sustained, sl.topping_total) {
+        service_limits.push(("Topping, sustained (all) loads".to_string(), format!("{} ({})", st(a), st(b))));
+    }
+    service_limits.push(("Class U up to / class T up to".to_string(), format!("{} / {}", st(s.ft_u), st(s.ft_t))));
+    let class_text = format!(
+        "largest tension at the bottom under all service loads between the bearings: ft = {} at x = {} {}; {}",
+        st(s.ft),
+        printed(s.ft_x),
+        u.length,
+        match s.class.letter() {
+            "U" => format!("at most {}: class U", st(s.ft_u)),
+            "T" => format!("above {} and at most {}: class T", st(s.ft_u), st(s.ft_t)),
+            _ => format!("above {}: class C", st(s.ft_t)),
+        }
+    );
+    let d = m.demand.as_ref();
+    let present = crate::input::model::LoadKind::ALL.map(|k| {
+        d.is_some_and(|d| {
+            d.uniform.iter().any(|w| w.kind == k && w.w > 0.0) || d.points.iter().any(|q| q.kind == k && q.p > 0.0)
+        })
+    });
+    let combinations =
+        basis.service_combinations(present).iter().map(|c| c.name.clone()).collect::<Vec<_>>().join("; ");
+    let (_, rule) = basis.release_steel_stress(reinforcement_fy);
+    let at = |w: (f64, f64)| format!("{} at x = {} {}", ratio_text(w.0), printed(w.1), u.length);
+    StressesShown {
+        pass: s.pass,
+        class: s.class.letter(),
+        class_text,
+        release_checked: s.release.checked,
+        release_why_not: s.release.why_not.clone(),
+        release_limits,
+        service_limits,
+        combinations,
+        sustained_live: printed(s.service.sustained_live),
+        has_topping: sl.topping_total.is_some(),
+        rows,
+        reinforcement: s
+            .reinforcement
+            .iter()
+            .map(|r| ReinforcementRow {
+                x: printed(r.x),
+                fibre: r.fibre,
+                force: printed(r.tension_force),
+                fs: printed(r.fs),
+                area: printed(r.area),
+            })
+            .collect(),
+        reinforcement_fy: st(reinforcement_fy),
+        reinforcement_rule: rule,
+        worst_release: s.worst_release.map(at),
+        worst_service: at(s.worst_service),
+        clauses: Clauses {
+            release: format!("{}; {}", basis.cite(Clause::ReleaseCompression), basis.clause(Clause::ReleaseTension)),
+            reinforcement: basis.cite(Clause::ReleaseReinforcement),
+            service: basis.cite(Clause::ServiceCompression),
+            class: basis.cite(Clause::MemberClass),
+            combinations: basis.cite(Clause::ServiceCombinations),
+        },
+        plot: plot(m, s, sys),
+    }
+}
+
+fn row(r: &StationRow, s: &MemberStresses) -> StressRow {
+    let stage = |name: &str| r.stresses.iter().find(|t| t.stage == name);
+    let pair = |t: &StageStress| [cell(&t.top), cell(&t.bottom)];
+    let empty = || [Cell { text: "—".into(), over: false }, Cell { text: "—".into(), over: false }];
+    let rel = stage("release");
+    let reinforced = s.reinforcement.iter().any(|q| (q.x - r.x).abs() <= 1e-9 * r.x.abs().max(1.0));
+    let failed = r.stresses.iter().any(|t| {
+        [&t.top, &t.bottom].into_iter().chain(t.topping_top.as_ref()).any(|f| !f.ok())
+            && !(t.stage == "release" && reinforced && t.top.stress.max(t.bottom.stress) > 0.0)
+    });
+    let worst = r.stresses.iter().map(StageStress::worst).fold(0.0, f64::max);
+    StressRow {
+        x: printed(r.x),
+        end_zone: s.release.end_zone.is_some_and(|z| r.x.min(s.length - r.x) <= z),
+        release: rel.map(pair),
+        sustained: stage("sustained").map_or_else(empty, pair),
+        service: stage("service").map_or_else(empty, pair),
+        topping: stage("service").and_then(|t| t.topping_top.as_ref()).map(cell),
+        worst: ratio_text(worst),
+        result: if failed {
+            "FAIL"
+        } else if reinforced {
+            "reinforced"
+        } else {
+            "ok"
+        },
+    }
+}
+
+fn plot(m: &MemberResult, s: &MemberStresses, sys: crate::units::System) -> StressPlot {
+    let u = sys.names();
+    let rows = &m.stations;
+    let mut lines = Vec::new();
+    for (stage, name) in [("release", "at release"), ("service", "all service loads")] {
+        for fibre in ["top", "bottom"] {
+            let points: Vec<[f64; 2]> = rows
+                .iter()
+                .filter_map(|r| {
+                    let t = r.stresses.iter().find(|t| t.stage == stage)?;
+                    Some([r.x, if fibre == "top" { t.top.stress } else { t.bottom.stress }])
+                })
+                .collect();
+            if !points.is_empty() {
+                lines.push(PlotLine { name: format!("{fibre}, {name}"), stage, fibre, points });
+            }
+        }
+    }
+    let len = s.length;
+    let mut limits = Vec::new();
+    if let (Some(l), Some(z)) = (&s.release.limits, s.release.end_zone) {
+        let z = z.min(len / 2.0);
+        let step =
+            |end: f64, mid: f64| vec![[0.0, end], [z, end], [z, mid], [len - z, mid], [len - z, end], [len, end]];
+        limits.push(PlotLine {
+            name: "release limits".into(),
+            stage: "release",
+            fibre: "limit",
+            points: step(l.tension_end, l.tension),
+        });
+        limits.push(PlotLine {
+            name: "release limits".into(),
+            stage: "release",
+            fibre: "limit",
+            points: step(l.compression_end, l.compression),
+        });
+    }
+    limits.push(PlotLine {
+        name: "service limit".into(),
+        stage: "service",
+        fibre: "limit",
+        points: vec![[0.0, s.service.limits.total], [len, s.service.limits.total]],
+    });
+    let all = lines.iter().chain(&limits).flat_map(|l| l.points.iter().map(|p| p[1]));
+    let (lo, hi) = all.fold((0.0f64, 0.0f64), |(a, b), y| (a.min(y), b.max(y)));
+    let pad = (hi - lo).max(1e-9) * 0.08;
+    let (lo, hi) = (lo - pad, hi + pad);
+    let bearing = m.demand.as_ref().map_or(0.0, |d| d.bearing);
+    StressPlot {
+        axes: Axes {
+            x_range: [0.0, len],
+            y_range: [lo, hi],
+            x_ticks: ticks(0.0, len).into_iter().map(|t| Tick { value: t, label: tick_label(t) }).collect(),
+            y_ticks: ticks(lo, hi).into_iter().map(|t| Tick { value: t, label: tick_label(t) }).collect(),
+            x_label: format!("x from the left end ({})", u.length),
+            y_label: format!("stress ({}), tension positive", u.stress),
+        },
+        lines,
+        limits,
+        bearings: [bearing, len - bearing],
+    }
+}
