@@ -128,6 +128,16 @@ struct MemberJson<'a> {
     /// and whether every stress is within its limit.
     #[serde(skip_serializing_if = "Option::is_none")]
     stresses: Option<&'a crate::analysis::stresses::MemberStresses>,
+    /// Members whose release stresses are checked: camber at release, erection and
+    /// final, and the live-load deflection against its limit.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    camber: Option<&'a crate::analysis::camber::Camber>,
+    /// The class U, T or C (members with loads), and the live-load deflection against its
+    /// limit (where the camber is computed): the same as in `stresses` and `camber`.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    class: Option<&'static str>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    deflection: Option<&'a crate::analysis::camber::LiveDeflection>,
 }
 
 #[derive(Serialize)]
@@ -223,6 +233,9 @@ fn member_json(m: &MemberResult) -> MemberJson<'_> {
         prestress: &m.prestress,
         losses: m.losses.as_ref(),
         stresses: m.stresses.as_ref(),
+        camber: m.camber.as_ref(),
+        class: m.stresses.as_ref().map(|s| s.class.letter()),
+        deflection: m.camber.as_ref().map(|c| &c.deflection),
     }
 }
 
@@ -369,18 +382,21 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
         out.push_str(&format!("Strength: all {n} check locations of {} members pass.\n", a.members.len()));
     }
     let checked: Vec<&MemberResult> = a.members.iter().filter(|m| m.stresses.is_some()).collect();
-    let s_failed = checked.iter().filter(|m| m.stresses.as_ref().is_some_and(|s| !s.pass)).count();
+    let s_failed = checked
+        .iter()
+        .filter(|m| m.stresses.as_ref().is_some_and(|s| !s.pass) || m.camber.as_ref().is_some_and(|c| !c.deflection.ok))
+        .count();
     let s_cond = checked.iter().filter(|m| !m.conditions.is_empty()).count();
     let k = checked.len();
     if s_failed > 0 {
-        out.push_str(&format!("Stresses: {s_failed} of {} with loads FAIL.\n", members(k)));
+        out.push_str(&format!("Stresses and deflection: {s_failed} of {} with loads FAIL.\n", members(k)));
     } else if s_cond > 0 {
         out.push_str(&format!(
-            "Stresses: every one of {} with loads meets its limits, {s_cond} only on the open conditions above.\n",
+            "Stresses and deflection: every one of {} with loads meets its limits, {s_cond} only on the open conditions above.\n",
             members(k)
         ));
     } else if k > 0 {
-        out.push_str(&format!("Stresses: every one of {} with loads meets its limits.\n", members(k)));
+        out.push_str(&format!("Stresses and deflection: every one of {} with loads meets its limits.\n", members(k)));
     }
     if k < a.members.len() {
         out.push_str(&format!(
@@ -407,6 +423,8 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
         "release: worst stress/limit".into(),
         "service: worst stress/limit".into(),
         format!("reinforcement at release ({}²)", u.length),
+        format!("camber at release / final ({})", u.length),
+        format!("live deflection ({})", u.length),
         "result".into(),
     ]];
     let at = |w: Option<(f64, f64)>| match w {
@@ -422,8 +440,23 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
         };
         let steel =
             s.reinforcement.iter().map(|r| r.area).fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))));
-        let mut result = if s.pass { "pass".to_string() } else { "FAIL".to_string() };
-        if s.pass && !m.conditions.is_empty() {
+        let deflection_ok = m.camber.as_ref().is_none_or(|c| c.deflection.ok);
+        let ok = s.pass && deflection_ok;
+        let mut result = if ok { "pass".to_string() } else { "FAIL".to_string() };
+        let (camber, live) = match &m.camber {
+            None => ("not computed (no release stage)".to_string(), "-".to_string()),
+            Some(c) => (
+                format!("{} / {}", show(c.release), show(c.final_camber)),
+                match (c.deflection.live, &c.deflection.limit_text, c.deflection.limit) {
+                    (None, _, _) => format!("not computed (class {})", s.class.letter()),
+                    (Some(v), Some(t), Some(l)) => {
+                        format!("{} {} {} = {}", show(v), if c.deflection.ok { "<=" } else { "EXCEEDS" }, t, show(l))
+                    }
+                    (Some(v), _, _) => format!("{} (no limit chosen)", show(v)),
+                },
+            ),
+        };
+        if ok && !m.conditions.is_empty() {
             let mut refs = Vec::new();
             for c in &m.conditions {
                 open.push(format!("{}: {}", m.id, c.text));
@@ -438,6 +471,8 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
             release,
             at(Some(s.worst_service)),
             steel.map_or_else(|| "-".into(), |v| format!("{} (largest)", show(v))),
+            camber,
+            live,
             result,
         ]);
     }
@@ -446,7 +481,7 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
     }
     let widths: Vec<usize> =
         (0..rows[0].len()).map(|c| rows.iter().map(|r| r[c].chars().count()).max().unwrap_or(0)).collect();
-    let mut out = "\nStresses at release and in service (tension positive; the worst stress against its limit over the stations):\n".to_string();
+    let mut out = "\nStresses at release and in service (tension positive; the worst stress against its limit over the stations), camber (upward) and the live-load deflection at mid-length:\n".to_string();
     for (i, r) in rows.iter().enumerate() {
         let line: Vec<String> = r.iter().enumerate().map(|(c, cell)| format!("{cell:<w$}", w = widths[c])).collect();
         out.push_str(line.join("  ").trim_end());

@@ -16,6 +16,7 @@
 //!
 //! Everything a code decides is asked of the design basis (`crate::basis`).
 
+pub mod camber;
 pub mod checks;
 pub mod conclusion;
 pub mod curve;
@@ -188,10 +189,16 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
     let mut stations = stations;
     let stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut tr));
     let conditions = stresses.as_ref().map_or_else(Vec::new, |s| stress_conditions(s, sys));
+    let camber = match (&demand, &stresses) {
+        (Some(d), Some(s)) if s.release.checked => camber::of_member(&p, d, s.class, &mut tr),
+        _ => None,
+    };
     let governing =
         locations.iter().enumerate().max_by(|a, b| a.1.ratio.total_cmp(&b.1.ratio)).map(|(i, _)| i).unwrap_or(0);
-    let pass =
-        locations.iter().all(|l| l.pass) && stations.iter().all(|s| s.pass) && stresses.as_ref().is_none_or(|s| s.pass);
+    let pass = locations.iter().all(|l| l.pass)
+        && stations.iter().all(|s| s.pass)
+        && stresses.as_ref().is_none_or(|s| s.pass)
+        && camber.as_ref().is_none_or(|c| c.deflection.ok);
     let status = locations
         .iter()
         .map(|l| l.status)
@@ -242,6 +249,7 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
         member: computed.map(|(effective, _)| Box::new(effective)),
         stresses,
         conditions,
+        camber,
     })
 }
 

@@ -274,6 +274,8 @@ pub struct MemberResult {
     pub stresses: Option<super::stresses::MemberStresses>,
     /// The member's own open conditions (of its stresses), beside its locations'.
     pub conditions: Vec<conclusion::Condition>,
+    /// Camber and the live-load deflection (members whose release stresses are checked).
+    pub camber: Option<super::camber::Camber>,
 }
 
 /// One station along the span: its demand and its design strength (shown units).

@@ -333,8 +333,7 @@ fn context<'a>(p: &'a Prepared<'a>, d: &'a Demand) -> Ctx<'a> {
 
 /// The prestress force and its eccentricity at x, each layer at `stress(layer)` times
 /// its transferred share there.
-fn force_at(cx: &Ctx, x: f64, stress: &dyn Fn(usize) -> f64) -> (f64, f64) {
-    let p = cx.p;
+pub(super) fn force_at(p: &Prepared, x: f64, stress: &dyn Fn(usize) -> f64) -> (f64, f64) {
     let site = Station::without_demand(String::new(), x);
     let at = strands_at(p, 0, &site, &mut Trace::new(false));
     let mut force = 0.0;
@@ -376,7 +375,7 @@ fn at(cx: &Ctx, x: f64) -> Vec<StageStress> {
     let m = p.m;
     let mut out = Vec::with_capacity(3);
     if let Some((_, lim)) = cx.release {
-        let (force, e) = force_at(cx, x, &|i| m.strands[i].fpi.unwrap_or(0.0));
+        let (force, e) = force_at(p, x, &|i| m.strands[i].fpi.unwrap_or(0.0));
         let msw = cx.w_sw * x * (cx.len - x) / 2.0;
         let end = x.min(cx.len - x) <= cx.end_zone;
         let (c, t) = if end { (lim.compression_end, lim.tension_end) } else { (lim.compression, lim.tension) };
@@ -394,7 +393,7 @@ fn at(cx: &Ctx, x: f64) -> Vec<StageStress> {
             topping_top: None,
         });
     }
-    let (force, e) = force_at(cx, x, &|i| m.strands[i].fse);
+    let (force, e) = force_at(p, x, &|i| m.strands[i].fse);
     let (by_kind, mnc) = moments_at(cx, x);
     let total = |f: &[f64; 4]| f.iter().zip(by_kind).map(|(f, m)| f * m).sum::<f64>();
     let (name, m_all) = (cx.combinations.iter())

@@ -451,6 +451,8 @@ pub struct StressOptions {
     pub release_reinforcement: bool,
     /// Yield strength of that reinforcement.
     pub reinforcement_fy: f64,
+    /// The live-load deflection limit as the divisor of the span (360 for "L/360").
+    pub deflection_limit: Option<f64>,
 }
 
 impl Member {

@@ -118,6 +118,7 @@ pub struct Stresses {
     pub sustained_live: Option<f64>,
     pub release_reinforcement: Option<bool>,
     pub reinforcement_fy: Option<Q>,
+    pub deflection_limit: Option<String>,
 }
 
 /// Service loads on a member: area loads ("20 psf", "1.0 kPa") times the tributary

@@ -253,6 +253,8 @@ mod tests {
         "package.stresses_checked",
         "package.stresses_service_only",
         "package.stresses_unchecked",
+        "package.camber_computed",
+        "package.deflection_not_computed",
         "package.signoffs[].role",
         "package.signoffs[].name",
         "package.signoffs[].license",

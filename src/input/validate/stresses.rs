@@ -12,7 +12,12 @@ pub(super) fn options(cx: &mut Ctx, m: &raw::Member, has_loads: bool) -> Option<
         System::Si => 420.0,
     };
     let Some(t) = &m.stresses else {
-        return Some(StressOptions { sustained_live: 0.0, release_reinforcement: false, reinforcement_fy: fy_default });
+        return Some(StressOptions {
+            sustained_live: 0.0,
+            release_reinforcement: false,
+            reinforcement_fy: fy_default,
+            deflection_limit: None,
+        });
     };
     if !has_loads {
         cx.warn(
@@ -35,10 +40,37 @@ pub(super) fn options(cx: &mut Ctx, m: &raw::Member, has_loads: bool) -> Option<
         }
         None => Some(fy_default),
     };
+    let limit = match &t.deflection_limit {
+        Some(text) => Some(deflection_limit(cx, text)?),
+        None => None,
+    };
     cx.leave();
     Some(StressOptions {
         sustained_live: sustained?,
         release_reinforcement: t.release_reinforcement.unwrap_or(false),
         reinforcement_fy: fy?,
+        deflection_limit: limit,
     })
+}
+
+/// "L/360": the span over a number from 60 to 2,000 (ACI 318-19 Table 24.2.2 names 180,
+/// 240, 360 and 480).
+fn deflection_limit(cx: &mut Ctx, text: &str) -> Option<f64> {
+    let n = text
+        .trim()
+        .strip_prefix(['L', 'l'])
+        .and_then(|r| r.trim_start().strip_prefix('/'))
+        .and_then(|r| r.trim().parse::<f64>().ok())
+        .filter(|n| n.is_finite() && (60.0..=2000.0).contains(n));
+    if n.is_none() {
+        cx.problem(
+            "deflection_limit",
+            format!("deflection_limit = {text:?} is not a limit this version reads"),
+            Some(
+                "\"L/N\" with N from 60 to 2000, as \"L/360\" (ACI 318-19 Table 24.2.2: L/180, L/240, L/360, L/480)"
+                    .to_string(),
+            ),
+        );
+    }
+    n
 }

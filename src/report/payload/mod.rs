@@ -139,6 +139,12 @@ pub struct PackageShown {
     pub stresses_service_only: Vec<String>,
     #[serde(default)]
     pub stresses_unchecked: Vec<String>,
+    /// Members whose camber is estimated, and those of them whose live-load deflection
+    /// is not computed (class T or C).
+    #[serde(default)]
+    pub camber_computed: Vec<String>,
+    #[serde(default)]
+    pub deflection_not_computed: Vec<String>,
 }
 
 #[derive(Serialize, Deserialize, Clone)]
@@ -333,6 +339,8 @@ fn package_shown(meta: &Meta, a: &Analysis) -> PackageShown {
         stresses_checked: ids(&|m| m.stresses.as_ref().is_some_and(|s| s.release.checked)),
         stresses_service_only: ids(&|m| m.stresses.as_ref().is_some_and(|s| !s.release.checked)),
         stresses_unchecked: ids(&|m| m.stresses.is_none()),
+        camber_computed: ids(&|m| m.camber.is_some()),
+        deflection_not_computed: ids(&|m| m.camber.as_ref().is_some_and(|c| c.deflection.live.is_none())),
         title: meta.title.clone(),
         project: meta.project.clone(),
         project_number: meta.project_number.clone(),

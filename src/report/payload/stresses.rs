@@ -33,6 +33,23 @@ pub struct StressesShown {
     pub worst_service: String,
     pub clauses: Clauses,
     pub plot: StressPlot,
+    /// Camber and the live-load deflection, or why they are not computed.
+    pub camber: Option<CamberShown>,
+    pub camber_why_not: Option<String>,
+}
+
+/// The camber table: each elastic component with its multipliers, the results, and the
+/// live-load deflection against its limit.
+#[derive(Serialize)]
+pub struct CamberShown {
+    pub x: String,
+    /// Component, elastic value, multiplier at erection, multiplier final.
+    pub rows: Vec<[String; 4]>,
+    pub release: String,
+    pub erection: String,
+    pub final_camber: String,
+    pub live: String,
+    pub live_ok: bool,
 }
 
 /// The clauses the sheet cites, in full.
@@ -183,6 +200,68 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
             combinations: basis.cite(Clause::ServiceCombinations),
         },
         plot: plot(m, s, sys),
+        camber: m.camber.as_ref().map(|c| camber(c, s, &u)),
+        camber_why_not: m.camber.is_none().then(|| {
+            "the camber rests on the release stage (Eci and the stress just after release), which is not checked for this member".to_string()
+        }),
+    }
+}
+
+fn camber(c: &crate::analysis::camber::Camber, s: &MemberStresses, u: &crate::units::UnitNames) -> CamberShown {
+    let k = c.multipliers;
+    let mult = |v: f64| format!("{v:.2}");
+    let mut rows = vec![
+        [
+            "camber from the prestress, Δp (up)".to_string(),
+            printed(c.prestress),
+            mult(k.erection_prestress),
+            mult(k.final_prestress),
+        ],
+        [
+            "self-weight, Δsw (down)".to_string(),
+            printed(c.self_weight),
+            mult(k.erection_self_weight),
+            mult(k.final_self_weight),
+        ],
+    ];
+    if let (Some(t), Some(f)) = (c.topping, k.final_topping) {
+        rows.push(["topping, Δtop (down)".to_string(), printed(t), "—".into(), mult(f)]);
+    }
+    rows.push([
+        "superimposed dead load, Δsd (down)".to_string(),
+        printed(c.superimposed_dead),
+        "—".into(),
+        mult(k.final_superimposed),
+    ]);
+    let d = &c.deflection;
+    let live = match (d.live, &d.limit_text, d.limit) {
+        (None, _, _) => format!("not computed: {}", d.why_not.clone().unwrap_or_default()),
+        (Some(v), Some(t), Some(l)) => format!(
+            "{} {} of {} (class {}), {} the limit {t} = {} {}",
+            printed(v),
+            u.length,
+            d.load,
+            s.class.letter(),
+            if d.ok { "within" } else { "BEYOND" },
+            printed(l),
+            u.length
+        ),
+        (Some(v), _, _) => format!(
+            "{} {} of {} (class {}); no limit chosen in the input",
+            printed(v),
+            u.length,
+            d.load,
+            s.class.letter()
+        ),
+    };
+    CamberShown {
+        x: printed(c.x),
+        rows,
+        release: printed(c.release),
+        erection: printed(c.erection),
+        final_camber: printed(c.final_camber),
+        live,
+        live_ok: d.ok,
     }
 }
 

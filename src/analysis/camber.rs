@@ -1,0 +1,355 @@
+//! Camber and deflection at the middle of the member: the elastic camber at release from
+//! the prestress less the self-weight deflection (the member on its ends, Eci, the
+//! precast section), the camber at erection and the final camber by the long-term
+//! multipliers of the PCI Design Handbook, and the immediate live-load deflection
+//! (between the bearings, Ec, the composite section) against the limit the input
+//! chooses (ACI 318-19 Table 24.2.2).
+//!
+//! Each elastic deflection is the virtual work of its moment M(x) against the moment
+//! m(x) of a unit load at the point sought: Δ = ∫ M m / (E I) dx, by Simpson's rule on
+//! pieces between the points where M or m changes its form (the ends of transfer, the
+//! debond and harp points, the bearings, the point loads, the middle), where M m is a
+//! polynomial of degree three at most: exact. Upward camber positive; deflections
+//! downward positive.
+
+use super::demand::Demand;
+use super::prepare::Prepared;
+use super::stresses::{Class, force_at};
+use super::sy;
+use crate::input::model::{LoadKind, Profile};
+use crate::trace::{Step, Trace, Unit};
+use serde::Serialize;
+
+/// The long-term multipliers on the elastic values at release (PCI Design Handbook,
+/// "suggested simple span multipliers", after Martin (1977); from memory): at erection
+/// on the self-weight deflection and on the camber from prestress; final on those two,
+/// on the superimposed dead load's deflection and on the composite topping's. Without
+/// and with a composite topping.
+#[derive(Debug, Clone, Copy, Serialize)]
+pub struct Multipliers {
+    pub erection_self_weight: f64,
+    pub erection_prestress: f64,
+    pub final_self_weight: f64,
+    pub final_prestress: f64,
+    pub final_superimposed: f64,
+    pub final_topping: Option<f64>,
+}
+
+const PLAIN: Multipliers = Multipliers {
+    erection_self_weight: 1.85,
+    erection_prestress: 1.80,
+    final_self_weight: 2.70,
+    final_prestress: 2.45,
+    final_superimposed: 3.00,
+    final_topping: None,
+};
+
+const TOPPED: Multipliers = Multipliers {
+    erection_self_weight: 1.85,
+    erection_prestress: 1.80,
+    final_self_weight: 2.40,
+    final_prestress: 2.20,
+    final_superimposed: 3.00,
+    final_topping: Some(2.30),
+};
+
+/// The live-load deflection against its limit, or why it is not computed.
+#[derive(Debug, Clone, Serialize)]
+pub struct LiveDeflection {
+    /// Downward, at the middle of the span (`None`: not computed).
+    pub live: Option<f64>,
+    /// What load it is of ("L", or the larger of "Lr" and "S" on a member without L).
+    pub load: &'static str,
+    pub limit: Option<f64>,
+    /// "L/360".
+    pub limit_text: Option<String>,
+    pub ok: bool,
+    pub why_not: Option<String>,
+}
+
+/// Camber and deflection of a member (lengths; camber upward positive, deflections
+/// downward positive).
+#[derive(Debug, Clone, Serialize)]
+pub struct Camber {
+    /// Where: the middle of the member.
+    pub x: f64,
+    pub prestress: f64,
+    pub self_weight: f64,
+    pub topping: Option<f64>,
+    pub superimposed_dead: f64,
+    pub release: f64,
+    pub erection: f64,
+    #[serde(rename = "final")]
+    pub final_camber: f64,
+    pub multipliers: Multipliers,
+    pub deflection: LiveDeflection,
+}
+
+/// The points where a moment of the member changes its form: its ends and middle, the
+/// bearings, each layer's debond point and the end of its transfer length from each end,
+/// the harp points and the point loads.
+fn breaks(p: &Prepared, d: &Demand) -> Vec<f64> {
+    let len = d.length;
+    let (d1, _) = p.basis.development_divisors();
+    let mut xs = vec![0.0, len, len / 2.0, d.bearing, len - d.bearing];
+    for s in &p.m.strands {
+        let ltr = s.fse / d1 * s.diameter;
+        for x in [s.debonded_length, s.debonded_length + ltr] {
+            xs.extend([x, len - x]);
+        }
+        if let Profile::Harped { harp_x, harp_x2, .. } = s.profile {
+            xs.extend([harp_x, harp_x2.unwrap_or(len - harp_x)]);
+        }
+    }
+    xs.extend(d.points.iter().map(|q| q.x));
+    xs.retain(|x| x.is_finite() && (0.0..=len).contains(x));
+    xs.sort_by(f64::total_cmp);
+    xs.dedup_by(|a, b| (*a - *b).abs() <= 1e-9 * len);
+    xs
+}
+
+/// ∫ M m dx over the span between supports at `a` and `b`, m the moment of a unit load at
+/// `at`; the pieces between `nodes` by Simpson's rule (exact for cubic M m).
+fn virtual_work(moment: &dyn Fn(f64) -> f64, (a, b): (f64, f64), at: f64, nodes: &[f64]) -> f64 {
+    let m = |x: f64| {
+        if x <= at { (b - at) / (b - a) * (x - a) } else { (at - a) / (b - a) * (b - x) }
+    };
+    let mut pts: Vec<f64> = nodes.iter().copied().filter(|x| *x > a && *x < b).collect();
+    pts.extend([a, b, at]);
+    pts.sort_by(f64::total_cmp);
+    pts.dedup();
+    pts.windows(2)
+        .map(|w| {
+            let (x0, x1) = (w[0], w[1]);
+            // within a piece, both sides' limits: a point load's jump sits at a node
+            let h = x1 - x0;
+            let (e0, e1) = (x0 + 1e-12 * h, x1 - 1e-12 * h);
+            let mid = 0.5 * (x0 + x1);
+            h / 6.0 * (moment(e0) * m(e0) + 4.0 * moment(mid) * m(mid) + moment(e1) * m(e1))
+        })
+        .sum()
+}
+
+/// The camber and deflection of a member whose release stage is checked (fpi and Eci
+/// known), each step recorded in `tr`.
+pub(super) fn of_member(p: &Prepared, d: &Demand, class: Class, tr: &mut Trace) -> Option<Camber> {
+    let m = p.m;
+    let rel = m.release?;
+    let len = d.length;
+    let mid = len / 2.0;
+    let nodes = breaks(p, d);
+    let (i, ec, eci) = (p.precast.i, m.concrete.ec, rel.eci);
+    let ic = p.composite.as_ref().map_or(i, |c| c.i);
+    let ends = (0.0, len);
+    let bearings = (d.bearing, len - d.bearing);
+    // the prestress just after release, with its eccentricity, as in the stresses
+    let mp = |x: f64| {
+        let (force, e) = force_at(p, x, &|k| m.strands[k].fpi.unwrap_or(0.0));
+        force * e
+    };
+    let prestress = virtual_work(&mp, ends, mid, &nodes) / (eci * i);
+    let w_sw = d.uniform.iter().find(|u| u.source == "self-weight").map_or(0.0, |u| u.w);
+    let self_weight = 5.0 * w_sw * len.powi(4) / (384.0 * eci * i);
+    let w_top = d.uniform.iter().find(|u| u.source == "topping" && u.precast_only).map(|u| u.w);
+    let topping = w_top.map(|w| virtual_work(&|x| d.uniform_moment(w, x), bearings, mid, &nodes) / (ec * i));
+    // the other dead loads, on the composite section (a shored topping among them)
+    let sd = |x: f64| {
+        let u: f64 = (d.uniform.iter())
+            .filter(|u| u.kind == LoadKind::Dead && u.source != "self-weight" && !u.precast_only)
+            .map(|u| d.uniform_moment(u.w, x))
+            .sum();
+        let q: f64 = (d.points.iter()).filter(|q| q.kind == LoadKind::Dead).map(|q| d.point_moment(q.p, q.x, x)).sum();
+        u + q
+    };
+    let superimposed_dead = virtual_work(&sd, bearings, mid, &nodes) / (ec * ic);
+    let k = if m.topping.is_some() { TOPPED } else { PLAIN };
+    let release = prestress - self_weight;
+    let erection = k.erection_prestress * prestress - k.erection_self_weight * self_weight;
+    let final_camber = k.final_prestress * prestress
+        - k.final_self_weight * self_weight
+        - k.final_topping.zip(topping).map_or(0.0, |(f, t)| f * t)
+        - k.final_superimposed * superimposed_dead;
+    let deflection = live(p, d, class, (bearings, mid, &nodes), ec * ic);
+    let c = Camber {
+        x: mid,
+        prestress,
+        self_weight,
+        topping,
+        superimposed_dead,
+        release,
+        erection,
+        final_camber,
+        multipliers: k,
+        deflection,
+    };
+    record(p, d, &c, (eci, ec, i, ic), w_sw, tr);
+    Some(c)
+}
+
+/// The immediate deflection of the live load (L; on a member without it, the larger of
+/// Lr and S) between the bearings on the uncracked composite section: class U only.
+fn live(
+    p: &Prepared,
+    d: &Demand,
+    class: Class,
+    (bearings, mid, nodes): ((f64, f64), f64, &[f64]),
+    ei: f64,
+) -> LiveDeflection {
+    let of = |kind: LoadKind| {
+        let mo = |x: f64| {
+            let u: f64 = d.uniform.iter().filter(|u| u.kind == kind).map(|u| d.uniform_moment(u.w, x)).sum();
+            let q: f64 = d.points.iter().filter(|q| q.kind == kind).map(|q| d.point_moment(q.p, q.x, x)).sum();
+            u + q
+        };
+        virtual_work(&mo, bearings, mid, nodes) / ei
+    };
+    let has = |kind: LoadKind| {
+        d.uniform.iter().any(|u| u.kind == kind && u.w > 0.0) || d.points.iter().any(|q| q.kind == kind && q.p > 0.0)
+    };
+    let (load, value) = if has(LoadKind::Live) || !(has(LoadKind::RoofLive) || has(LoadKind::Snow)) {
+        ("L", of(LoadKind::Live))
+    } else {
+        let (lr, s) = (of(LoadKind::RoofLive), of(LoadKind::Snow));
+        if lr >= s { ("Lr", lr) } else { ("S", s) }
+    };
+    let span = d.span;
+    let limit = p.m.stresses.deflection_limit;
+    let limit_value = limit.map(|n| span / n);
+    let limit_text =
+        limit.map(|n| if n.fract() == 0.0 { format!("L/{n:.0}") } else { format!("L/{}", crate::trace::show(n)) });
+    if class != Class::U {
+        return LiveDeflection {
+            live: None,
+            load,
+            limit: limit_value,
+            limit_text,
+            ok: true,
+            why_not: Some(format!(
+                "class {}: the deflection needs the cracked section (a bilinear moment-deflection relation or an effective moment of inertia, ACI 318-19 24.2.3.9), which this version does not compute",
+                match class {
+                    Class::T => "T",
+                    _ => "C",
+                }
+            )),
+        };
+    }
+    LiveDeflection {
+        live: Some(value),
+        load,
+        limit: limit_value,
+        limit_text,
+        ok: limit_value.is_none_or(|l| value <= l * (1.0 + 1e-9)),
+        why_not: None,
+    }
+}
+
+fn record(p: &Prepared, d: &Demand, c: &Camber, (eci, ec, i, ic): (f64, f64, f64, f64), w_sw: f64, tr: &mut Trace) {
+    let sys = p.sys;
+    let u = sys.names();
+    let len_u = u.length;
+    let show = crate::trace::show;
+    let integral = "by virtual work, ∫ M m / (E I) dx with m the moment of a unit load at the point (Simpson's rule on pieces where M m is at most cubic: exact)";
+    tr.rec(|| {
+        Step::new("camber", "camber.p", "Camber from the prestress at release", sy("Delta_p", "Δp"))
+            .result(c.prestress, Unit::Length)
+            .note(format!(
+                "upward, at x = {} {len_u}: M(x) = P(x) e(x) with the force just after release and its eccentricity at each x (built up over the transfer lengths, as in the stresses), the member on its ends, Eci = {} {}, I = {} {}; {integral}",
+                show(c.x),
+                show(eci),
+                u.stress,
+                show(i),
+                crate::trace::scale(Unit::Inertia).1,
+            ))
+    });
+    tr.rec(|| {
+        Step::new("camber", "camber.sw", "Deflection from the self-weight at release", sy("Delta_(s w)", "Δsw"))
+            .result(c.self_weight, Unit::Length)
+            .note(format!(
+                "downward: 5 w L⁴ / (384 Eci I) with w = {} {}, L = {} {len_u} (the member on its ends)",
+                show(super::demand::line_shown(sys, w_sw)),
+                match sys {
+                    crate::units::System::Us => "klf",
+                    crate::units::System::Si => "kN/m",
+                },
+                show(d.length)
+            ))
+    });
+    if let Some(t) = c.topping {
+        tr.rec(|| {
+            Step::new("camber", "camber.top", "Deflection from the topping's weight", sy("Delta_(t o p)", "Δtop"))
+                .result(t, Unit::Length)
+                .note(format!(
+                    "downward: on the precast unit between the bearings, Ec = {} {}; {integral}",
+                    show(ec),
+                    u.stress
+                ))
+        });
+    }
+    tr.rec(|| {
+        Step::new("camber", "camber.sd", "Deflection from the superimposed dead load", sy("Delta_(s d)", "Δsd"))
+            .result(c.superimposed_dead, Unit::Length)
+            .note(format!(
+                "downward: the dead loads other than the self-weight{} on the composite section between the bearings, Ec, I = {}; {integral}",
+                if c.topping.is_some() { " and the topping" } else { "" },
+                show(ic)
+            ))
+    });
+    let k = c.multipliers;
+    let source = "PCI Design Handbook, suggested simple-span multipliers (after Martin 1977); from memory";
+    tr.rec(|| {
+        Step::new("camber", "camber.release", "Camber at release", sy("Delta_i", "Δi"))
+            .formula(crate::trace::f::sub(crate::trace::f::v(0), crate::trace::f::v(1)))
+            .input(sy("Delta_p", "Δp"), c.prestress, Unit::Length)
+            .input(sy("Delta_(s w)", "Δsw"), c.self_weight, Unit::Length)
+            .result(c.release, Unit::Length)
+            .note("upward positive")
+    });
+    tr.rec(|| {
+        use crate::trace::f::*;
+        Step::new("camber", "camber.erection", "Camber at erection", sy("Delta_e", "Δe"))
+            .formula(sub(mul(vec![n(k.erection_prestress), v(0)]), mul(vec![n(k.erection_self_weight), v(1)])))
+            .input(sy("Delta_p", "Δp"), c.prestress, Unit::Length)
+            .input(sy("Delta_(s w)", "Δsw"), c.self_weight, Unit::Length)
+            .result(c.erection, Unit::Length)
+            .clause(source)
+    });
+    tr.rec(|| {
+        use crate::trace::f::*;
+        let mut terms = vec![mul(vec![n(k.final_prestress), v(0)]), neg(mul(vec![n(k.final_self_weight), v(1)]))];
+        let mut st = Step::new("camber", "camber.final", "Final camber", sy("Delta_f", "Δf"))
+            .input(sy("Delta_p", "Δp"), c.prestress, Unit::Length)
+            .input(sy("Delta_(s w)", "Δsw"), c.self_weight, Unit::Length)
+            .input(sy("Delta_(s d)", "Δsd"), c.superimposed_dead, Unit::Length);
+        terms.push(neg(mul(vec![n(k.final_superimposed), v(2)])));
+        if let (Some(f), Some(t)) = (k.final_topping, c.topping) {
+            terms.push(neg(mul(vec![n(f), v(3)])));
+            st = st.input(sy("Delta_(t o p)", "Δtop"), t, Unit::Length);
+        }
+        st.formula(add(terms))
+            .result(c.final_camber, Unit::Length)
+            .clause(source)
+            .note("upward positive; the multipliers of a member with a composite topping where it has one")
+    });
+    let l = &c.deflection;
+    if let Some(v) = l.live {
+        tr.rec(|| {
+            let st = Step::new("camber", "camber.live", "Immediate live-load deflection", sy("Delta_L", "ΔL"))
+                .result(v, Unit::Length)
+                .clause(format!("{} 24.2.3, Table 24.2.2", p.basis.name()));
+            let against = match (l.limit, &l.limit_text) {
+                (Some(lim), Some(t)) => format!(
+                    "; limit {t} = {} {len_u} (the span {} {len_u}): {}",
+                    show(lim),
+                    show(d.span),
+                    if l.ok { "within it" } else { "EXCEEDED" }
+                ),
+                _ => "; no limit chosen in the input ([member.stresses] deflection_limit)".into(),
+            };
+            st.note(format!(
+                "downward, of {} between the bearings, class U: the uncracked composite section, Ec, I = {}; {integral}{against}",
+                l.load,
+                show(ic)
+            ))
+        });
+    }
+}
