@@ -235,7 +235,7 @@ fn member_json(m: &MemberResult) -> MemberJson<'_> {
         stresses: m.stresses.as_ref(),
         camber: m.camber.as_ref(),
         class: m.stresses.as_ref().map(|s| s.class.letter()),
-        deflection: m.camber.as_ref().map(|c| &c.deflection),
+        deflection: m.deflection.as_ref(),
     }
 }
 
@@ -384,7 +384,7 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
     let checked: Vec<&MemberResult> = a.members.iter().filter(|m| m.stresses.is_some()).collect();
     let s_failed = checked
         .iter()
-        .filter(|m| m.stresses.as_ref().is_some_and(|s| !s.pass) || m.camber.as_ref().is_some_and(|c| !c.deflection.ok))
+        .filter(|m| m.stresses.as_ref().is_some_and(|s| !s.pass) || m.deflection.as_ref().is_some_and(|l| !l.ok))
         .count();
     let s_cond = checked.iter().filter(|m| !m.conditions.is_empty()).count();
     let k = checked.len();
@@ -440,21 +440,22 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
         };
         let steel =
             s.reinforcement.iter().map(|r| r.area).fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))));
-        let deflection_ok = m.camber.as_ref().is_none_or(|c| c.deflection.ok);
+        let deflection_ok = m.deflection.as_ref().is_none_or(|l| l.ok);
         let ok = s.pass && deflection_ok;
         let mut result = if ok { "pass".to_string() } else { "FAIL".to_string() };
-        let (camber, live) = match &m.camber {
-            None => ("not computed (no release stage)".to_string(), "-".to_string()),
-            Some(c) => (
-                format!("{} / {}", show(c.release), show(c.final_camber)),
-                match (c.deflection.live, &c.deflection.limit_text, c.deflection.limit) {
-                    (None, _, _) => format!("not computed (class {})", s.class.letter()),
-                    (Some(v), Some(t), Some(l)) => {
-                        format!("{} {} {} = {}", show(v), if c.deflection.ok { "<=" } else { "EXCEEDS" }, t, show(l))
-                    }
-                    (Some(v), _, _) => format!("{} (no limit chosen)", show(v)),
-                },
-            ),
+        let camber = match &m.camber {
+            None => "not computed (no release stage)".to_string(),
+            Some(c) => format!("{} / {}", show(c.release), show(c.final_camber)),
+        };
+        let live = match m.deflection.as_ref() {
+            None => "-".to_string(),
+            Some(d) => match (d.live, &d.limit_text, d.limit) {
+                (None, _, _) => format!("not computed (class {})", s.class.letter()),
+                (Some(v), Some(t), Some(l)) => {
+                    format!("{} {} {} = {}", show(v), if d.ok { "<=" } else { "EXCEEDS" }, t, show(l))
+                }
+                (Some(v), _, _) => format!("{} (no limit chosen)", show(v)),
+            },
         };
         if ok && !m.conditions.is_empty() {
             let mut refs = Vec::new();

@@ -554,7 +554,7 @@ fn sc1_transformed_section_against_concreteproperties() {
 // bottom, fpi 200 ksi, f'ci 6 ksi, f'c 7 ksi; bearings 24 in from the ends, so that the
 // left bearing is a station inside the transfer length (r = 24/34) and the end zone.
 // ---------------------------------------------------------------------------------------
-const SD1: &str = r#"
+const SD1: &str = r##"
 [[member]]
 id = "SD-1"
 length = 480.0
@@ -577,7 +577,11 @@ count = 6
 diameter = 0.6
 fse = 170.0
 fpi = 200.0
-"#;
+[[member.bars]]
+depth = 2.5
+count = 5
+size = "#6"
+"##;
 
 /// The rows printed by tests/reference/stresses_by_hand.py, one a line.
 #[rustfmt::skip]
@@ -623,7 +627,15 @@ fn sd1_release_tension_with_and_without_reinforcement() {
     }
     for r in o.stresses()["reinforcement"].as_array().unwrap() {
         same("As = T / fs", num(&r["area"], "area"), num(&r["tension_force"], "T") / num(&r["fs"], "fs"));
+        // [spec] provided: the five #6 top bars (0.44 in² each, ASTM A615, from memory),
+        // 2.5 in below the top, inside every tension zone here
+        same("provided", num(&r["provided"], "provided"), 5.0 * 0.44);
+        assert_eq!(r["ok"], true);
     }
+    // one bar is short of every station's need: the member fails on it
+    let short = checked(&SD1.replace("count = 5\nsize = \"#6\"", "count = 1\nsize = \"#6\""));
+    assert_eq!(short.stresses()["pass"], false, "{}", short.stresses());
+    assert_eq!(short.json["pass"], false);
     assert_eq!(o.stresses()["pass"], true, "{}", o.stresses()); // [spec] the station is then not failed
     assert_eq!(o.json["pass"], true, "strength passes with margin (phi Mn about twice Mu, roughly)");
 
@@ -759,7 +771,7 @@ fn limits_follow_the_tables() {
 // (fse 1100, fpi 1300 MPa), f'ci 30, f'c 40 MPa; release reinforcement with fy 420 MPa:
 // fs = min(0.6 × 420, 210) = 210 MPa. Stations 900, 2700 and 4500 mm.
 // ---------------------------------------------------------------------------------------
-const SG1: &str = r#"
+const SG1: &str = r##"
 [[member]]
 id = "SG-1"
 length = 9000.0
@@ -782,7 +794,11 @@ count = 4
 diameter = 12.7
 fse = 1100.0
 fpi = 1300.0
-"#;
+[[member.bars]]
+depth = 60.0
+count = 3
+size = "#13"
+"##;
 
 /// The rows printed by tests/reference/stresses_by_hand.py, one a line.
 #[rustfmt::skip]

@@ -82,7 +82,6 @@ pub struct Camber {
     #[serde(rename = "final")]
     pub final_camber: f64,
     pub multipliers: Multipliers,
-    pub deflection: LiveDeflection,
 }
 
 /// The points where a moment of the member changes its form: its ends and middle, the
@@ -130,9 +129,9 @@ fn virtual_work(moment: &dyn Fn(f64) -> f64, (a, b): (f64, f64), at: f64, nodes:
         .sum()
 }
 
-/// The camber and deflection of a member whose release stage is checked (fpi and Eci
-/// known), each step recorded in `tr`.
-pub(super) fn of_member(p: &Prepared, d: &Demand, class: Class, tr: &mut Trace) -> Option<Camber> {
+/// The camber of a member whose release stage is checked (fpi and Eci known), each step
+/// recorded in `tr`.
+pub(super) fn of_member(p: &Prepared, d: &Demand, tr: &mut Trace) -> Option<Camber> {
     let m = p.m;
     let rel = m.release?;
     let len = d.length;
@@ -169,7 +168,6 @@ pub(super) fn of_member(p: &Prepared, d: &Demand, class: Class, tr: &mut Trace) 
         - k.final_self_weight * self_weight
         - k.final_topping.zip(topping).map_or(0.0, |(f, t)| f * t)
         - k.final_superimposed * superimposed_dead;
-    let deflection = live(p, d, class, (bearings, mid, &nodes), ec * ic);
     let c = Camber {
         x: mid,
         prestress,
@@ -180,28 +178,32 @@ pub(super) fn of_member(p: &Prepared, d: &Demand, class: Class, tr: &mut Trace) 
         erection,
         final_camber,
         multipliers: k,
-        deflection,
     };
     record(p, d, &c, (eci, ec, i, ic), w_sw, tr);
     Some(c)
 }
 
 /// The immediate deflection of the live load (L; on a member without it, the larger of
-/// Lr and S) between the bearings on the uncracked composite section: class U only.
-fn live(
-    p: &Prepared,
-    d: &Demand,
-    class: Class,
-    (bearings, mid, nodes): ((f64, f64), f64, &[f64]),
-    ei: f64,
-) -> LiveDeflection {
+/// Lr and S) at mid-length between the bearings on the uncracked composite section, with
+/// Ec: class U only; recorded in `tr`.
+pub(super) fn live_deflection(p: &Prepared, d: &Demand, class: Class, tr: &mut Trace) -> LiveDeflection {
+    let out = live(p, d, class);
+    record_live(p, d, &out, tr);
+    out
+}
+
+fn live(p: &Prepared, d: &Demand, class: Class) -> LiveDeflection {
+    let nodes = breaks(p, d);
+    let (bearings, mid) = ((d.bearing, d.length - d.bearing), d.length / 2.0);
+    let ic = p.composite.as_ref().map_or(p.precast.i, |c| c.i);
+    let ei = p.m.concrete.ec * ic;
     let of = |kind: LoadKind| {
         let mo = |x: f64| {
             let u: f64 = d.uniform.iter().filter(|u| u.kind == kind).map(|u| d.uniform_moment(u.w, x)).sum();
             let q: f64 = d.points.iter().filter(|q| q.kind == kind).map(|q| d.point_moment(q.p, q.x, x)).sum();
             u + q
         };
-        virtual_work(&mo, bearings, mid, nodes) / ei
+        virtual_work(&mo, bearings, mid, &nodes) / ei
     };
     let has = |kind: LoadKind| {
         d.uniform.iter().any(|u| u.kind == kind && u.w > 0.0) || d.points.iter().any(|q| q.kind == kind && q.p > 0.0)
@@ -253,12 +255,11 @@ fn record(p: &Prepared, d: &Demand, c: &Camber, (eci, ec, i, ic): (f64, f64, f64
         Step::new("camber", "camber.p", "Camber from the prestress at release", sy("Delta_p", "Δp"))
             .result(c.prestress, Unit::Length)
             .note(format!(
-                "upward, at x = {} {len_u}: M(x) = P(x) e(x) with the force just after release and its eccentricity at each x (built up over the transfer lengths, as in the stresses), the member on its ends, Eci = {} {}, I = {} {}; {integral}",
+                "upward, at x = {} {len_u}: M(x) = P(x) e(x) with the force just after release and its eccentricity at each x (built up over the transfer lengths, as in the stresses), the member on its ends, Eci = {} {}, I = {} {len_u}⁴; {integral}",
                 show(c.x),
                 show(eci),
                 u.stress,
                 show(i),
-                crate::trace::scale(Unit::Inertia).1,
             ))
     });
     tr.rec(|| {
@@ -289,7 +290,7 @@ fn record(p: &Prepared, d: &Demand, c: &Camber, (eci, ec, i, ic): (f64, f64, f64
         Step::new("camber", "camber.sd", "Deflection from the superimposed dead load", sy("Delta_(s d)", "Δsd"))
             .result(c.superimposed_dead, Unit::Length)
             .note(format!(
-                "downward: the dead loads other than the self-weight{} on the composite section between the bearings, Ec, I = {}; {integral}",
+                "downward: the dead loads other than the self-weight{} on the composite section between the bearings, Ec, I = {} {len_u}⁴; {integral}",
                 if c.topping.is_some() { " and the topping" } else { "" },
                 show(ic)
             ))
@@ -330,7 +331,13 @@ fn record(p: &Prepared, d: &Demand, c: &Camber, (eci, ec, i, ic): (f64, f64, f64
             .clause(source)
             .note("upward positive; the multipliers of a member with a composite topping where it has one")
     });
-    let l = &c.deflection;
+}
+
+fn record_live(p: &Prepared, d: &Demand, l: &LiveDeflection, tr: &mut Trace) {
+    let len_u = p.sys.names().length;
+    let show = crate::trace::show;
+    let ic = p.composite.as_ref().map_or(p.precast.i, |c| c.i);
+    let integral = "by virtual work, ∫ M m / (E I) dx with m the moment of a unit load at the point (Simpson's rule on pieces where M m is at most cubic: exact)";
     if let Some(v) = l.live {
         tr.rec(|| {
             let st = Step::new("camber", "camber.live", "Immediate live-load deflection", sy("Delta_L", "ΔL"))
@@ -346,7 +353,7 @@ fn record(p: &Prepared, d: &Demand, c: &Camber, (eci, ec, i, ic): (f64, f64, f64
                 _ => "; no limit chosen in the input ([member.stresses] deflection_limit)".into(),
             };
             st.note(format!(
-                "downward, of {} between the bearings, class U: the uncracked composite section, Ec, I = {}; {integral}{against}",
+                "downward, of {} between the bearings, class U: the uncracked composite section, Ec, I = {} {len_u}⁴; {integral}{against}",
                 l.load,
                 show(ic)
             ))

@@ -56,6 +56,8 @@ pub enum ConditionKind {
     ClassC,
     /// The stresses at release not checked (f'ci or the stress after release not given).
     ReleaseNotChecked,
+    /// A live-load deflection limit asked for and not checked (class T or C).
+    DeflectionNotComputed,
 }
 
 impl ConditionKind {
@@ -80,6 +82,9 @@ impl ConditionKind {
             }
             ConditionKind::ClassC => {
                 "the member is class C in service: its cracked-section stresses and crack control are not checked by this version"
+            }
+            ConditionKind::DeflectionNotComputed => {
+                "the live-load deflection of a class T or C member is not computed by this version: check it on the cracked section"
             }
             ConditionKind::ReleaseNotChecked => {
                 "the stresses at release are not checked: give f'ci and the stress just after release of each tensioned layer"
@@ -281,7 +286,7 @@ fn unchecked_stresses(l: &LocationResult, u: &UnitNames) -> Vec<Condition> {
                 u.stress
             ),
             text: format!(
-                "Under the effective prestress alone the top fibre of the precast unit is in tension, {} {}, beyond fr = {} {}: it cracks before any load acts (at release, with the higher stress then, more so). The stresses at release and in service are not checked in this package: check them, and provide top reinforcement or change the strand pattern.",
+                "Under the effective prestress alone the top fibre of the precast unit is in tension, {} {}, beyond fr = {} {}: it cracks before any load acts (at release, with the higher stress then, more so). The stresses at release are not checked for this member (they need its loads, f'ci and the stress just after release of each layer): check them, and provide top reinforcement or change the strand pattern.",
                 show(alone.top),
                 u.stress,
                 show(alone.fr),
@@ -298,7 +303,7 @@ fn unchecked_stresses(l: &LocationResult, u: &UnitNames) -> Vec<Condition> {
                 u.stress
             ),
             text: format!(
-                "Under the effective prestress alone the bottom fibre's precompression, {} {}, exceeds f'c = {} {}. The stresses at release and in service are not checked in this package: check them.",
+                "Under the effective prestress alone the bottom fibre's precompression, {} {}, exceeds f'c = {} {}. The stresses at release are not checked for this member (they need its loads, f'ci and the stress just after release of each layer): check them.",
                 show(-alone.bottom),
                 u.stress,
                 show(alone.fc),

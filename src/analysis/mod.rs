@@ -190,15 +190,29 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
     let stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut tr));
     let conditions = stresses.as_ref().map_or_else(Vec::new, |s| stress_conditions(s, sys));
     let camber = match (&demand, &stresses) {
-        (Some(d), Some(s)) if s.release.checked => camber::of_member(&p, d, s.class, &mut tr),
+        (Some(d), Some(s)) if s.release.checked => camber::of_member(&p, d, &mut tr),
         _ => None,
     };
+    let deflection = match (&demand, &stresses) {
+        (Some(d), Some(s)) => Some(camber::live_deflection(&p, d, s.class, &mut tr)),
+        _ => None,
+    };
+    let mut conditions = conditions;
+    if let Some(why) =
+        deflection.as_ref().filter(|l| l.live.is_none() && l.limit.is_some()).and_then(|l| l.why_not.clone())
+    {
+        conditions.push(conclusion::Condition {
+            kind: conclusion::ConditionKind::DeflectionNotComputed,
+            short: "live-load deflection not computed".into(),
+            text: format!("The live-load deflection limit of the input is not checked: {why}."),
+        });
+    }
     let governing =
         locations.iter().enumerate().max_by(|a, b| a.1.ratio.total_cmp(&b.1.ratio)).map(|(i, _)| i).unwrap_or(0);
     let pass = locations.iter().all(|l| l.pass)
         && stations.iter().all(|s| s.pass)
         && stresses.as_ref().is_none_or(|s| s.pass)
-        && camber.as_ref().is_none_or(|c| c.deflection.ok);
+        && deflection.as_ref().is_none_or(|l| l.ok);
     let status = locations
         .iter()
         .map(|l| l.status)
@@ -250,6 +264,7 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
         stresses,
         conditions,
         camber,
+        deflection,
     })
 }
 
@@ -270,7 +285,11 @@ fn stresses_along(
     for stage in ["release", "sustained", "service"] {
         let worst = (rows.iter())
             .filter_map(|r| r.stresses.iter().find(|s| s.stage == stage).map(|s| (r.x, s)))
-            .max_by(|a, b| a.1.worst().total_cmp(&b.1.worst()));
+            // the first of equals, as the member's summary names it
+            .fold(None, |best: Option<(f64, &stresses::StageStress)>, c| match best {
+                Some(b) if b.1.worst() >= c.1.worst() => Some(b),
+                _ => Some(c),
+            });
         if let Some((x, s)) = worst {
             stresses::record_station(p, d, x, s, tr);
         }

@@ -274,8 +274,10 @@ pub struct MemberResult {
     pub stresses: Option<super::stresses::MemberStresses>,
     /// The member's own open conditions (of its stresses), beside its locations'.
     pub conditions: Vec<conclusion::Condition>,
-    /// Camber and the live-load deflection (members whose release stresses are checked).
+    /// Camber (members whose release stresses are checked).
     pub camber: Option<super::camber::Camber>,
+    /// The live-load deflection against its limit (members with loads).
+    pub deflection: Option<super::camber::LiveDeflection>,
 }
 
 /// One station along the span: its demand and its design strength (shown units).

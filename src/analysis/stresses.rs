@@ -80,7 +80,11 @@ pub struct Reinforcement {
     /// The tensile force of the uncracked stresses over the tension zone (shown units).
     pub tension_force: f64,
     pub fs: f64,
+    /// Required: the force over fs.
     pub area: f64,
+    /// Provided: the bonded bars and untensioned strands within the tension zone.
+    pub provided: f64,
+    pub ok: bool,
 }
 
 /// The release stage as checked, or why not.
@@ -227,7 +231,9 @@ pub(super) fn of_member(
                     continue;
                 }
                 if s.stage == "release" && f.stress > 0.0 && m.stresses.release_reinforcement {
-                    reinforcement.push(bonded_steel(&cx, *x, fibre, s));
+                    let r = bonded_steel(&cx, *x, fibre, s);
+                    pass &= r.ok;
+                    reinforcement.push(r);
                 } else {
                     pass = false;
                 }
@@ -264,6 +270,13 @@ pub(super) fn of_member(
         pass,
     };
     (out, rows)
+}
+
+/// Whether a station takes the end limits at release: within the longest transfer
+/// length of a member end, the point at that length included (to a part in 10⁹, so
+/// that x and L - x are alike).
+pub fn in_end_zone(x: f64, len: f64, zone: f64) -> bool {
+    x.min(len - x) <= zone * (1.0 + 1e-9) + 1e-9 * len
 }
 
 /// Whether the release stage can be checked (f'ci and every fpi known).
@@ -377,7 +390,7 @@ fn at(cx: &Ctx, x: f64) -> Vec<StageStress> {
     if let Some((_, lim)) = cx.release {
         let (force, e) = force_at(p, x, &|i| m.strands[i].fpi.unwrap_or(0.0));
         let msw = cx.w_sw * x * (cx.len - x) / 2.0;
-        let end = x.min(cx.len - x) <= cx.end_zone;
+        let end = in_end_zone(x, cx.len, cx.end_zone);
         let (c, t) = if end { (lim.compression_end, lim.tension_end) } else { (lim.compression, lim.tension) };
         let (top, bottom, _) = fibres(cx, force, e, msw, 0.0);
         let limit = |s: f64| Some(if s < 0.0 { -c } else { t });
@@ -440,15 +453,34 @@ fn fibres(cx: &Ctx, force: f64, e: f64, mnc: f64, mc: f64) -> (f64, f64, Option<
 fn bonded_steel(cx: &Ctx, x: f64, fibre: &'static str, s: &StageStress) -> Reinforcement {
     let p = cx.p;
     let (ft, fb) = (s.top.stress, s.bottom.stress);
-    // f(y) = a + b y, from the bottom fibre to the top
+    // f(y) = a + b y, from the bottom fibre to the top; the tension zone is where it is
+    // positive: above y0 where the stress rises upward, below it where it falls
     let b = (ft - fb) / (cx.top_p - cx.bot);
     let a = fb - b * cx.bot;
     let region = &p.m.region;
-    let y0 = if b != 0.0 { -a / b } else { cx.bot };
-    let part = if fibre == "top" { region.above(y0) } else { region.moments() - region.above(y0) };
+    let (part, zone): (crate::section::Moments, Box<dyn Fn(f64) -> bool>) = if b > 0.0 {
+        let y0 = -a / b;
+        (region.above(y0), Box::new(move |y| y >= y0))
+    } else if b < 0.0 {
+        let y0 = -a / b;
+        (region.moments() - region.above(y0), Box::new(move |y| y <= y0))
+    } else {
+        (region.moments(), Box::new(move |_| a > 0.0))
+    };
     let force = (a * part.area + b * part.qx).max(0.0);
     let (fs, _) = p.basis.release_steel_stress(p.m.stresses.reinforcement_fy);
-    Reinforcement { x, fibre, tension_force: force * p.cv.kf, fs, area: force / fs }
+    let area = force / fs;
+    // bonded steel that is not tensioned: bars, and strand with no prestress (the
+    // tensioned strand in the zone is not counted, conservatively)
+    let site = Station::without_demand(String::new(), x);
+    let at = strands_at(p, 0, &site, &mut Trace::new(false));
+    let bars: f64 = p.m.bars.iter().filter(|b| zone(cx.top_p - b.depth)).map(|b| b.total_area()).sum();
+    let strands: f64 = (p.m.strands.iter().zip(&at))
+        .filter(|(s, a)| s.fse <= 0.0 && a.active && zone(cx.yc - a.yb))
+        .map(|(s, _)| s.total_area())
+        .sum();
+    let provided = bars + strands;
+    Reinforcement { x, fibre, tension_force: force * p.cv.kf, fs, area, provided, ok: provided >= area * (1.0 - 1e-9) }
 }
 
 /// The member's limits and class bounds, once.
@@ -571,14 +603,19 @@ pub(super) fn record_station(cx_p: &Prepared, d: &Demand, x: f64, stage: &StageS
         tr.rec(|| {
             let why = match &stage.combination {
                 Some(c) => format!("the service combination {c} (the largest moment here) less Mnc"),
+                None if p.m.stresses.sustained_live == 0.0 => {
+                    "the dead load alone (no part of the live load is taken as sustained), less Mnc".to_string()
+                }
                 None => format!(
-                    "dead load and {} of the live load, less Mnc",
+                    "the dead load and {} times the live load (the share taken as sustained), less Mnc",
                     crate::trace::show(p.m.stresses.sustained_live)
                 ),
             };
+            let clause =
+                if stage.combination.is_some() { Clause::ServiceCombinations } else { Clause::ServiceCompression };
             Step::new("stresses", id("Mc"), "Moment on the composite section", sy("M_c", "Mc"))
                 .result(stage.m_composite, Unit::Moment)
-                .clause(p.basis.cite(Clause::ServiceCombinations))
+                .clause(p.basis.cite(clause))
                 .note(why)
         });
     }
@@ -621,12 +658,14 @@ pub(super) fn record_station(cx_p: &Prepared, d: &Demand, x: f64, stage: &StageS
             ),
             None => "no limit applies to a stress of this sign here".into(),
         };
-        st.formula(add(terms)).result(f.stress, Unit::Stress).note(format!("tension positive; {limit}"))
+        let extra = if !release && sign > 0.0 {
+            "; S'tc = Ic / (height of the precast top above the composite centroid)"
+        } else {
+            ""
+        };
+        st.formula(add(terms)).result(f.stress, Unit::Stress).note(format!("tension positive; {limit}{extra}"))
     };
-    tr.rec(|| {
-        let st = fibre("top of the precast unit", "f_t", "ft", st_p, stc, 1.0, &stage.top);
-        if release { st } else { st.note("S'tc = Ic / (height of the precast top above the composite centroid)") }
-    });
+    tr.rec(|| fibre("top of the precast unit", "f_t", "ft", st_p, stc, 1.0, &stage.top));
     tr.rec(|| fibre("bottom", "f_b", "fb", sb_p, sbc, -1.0, &stage.bottom));
     if let Some(f) = &stage.topping_top {
         tr.rec(|| {

@@ -70,7 +70,7 @@ impl Basis for Aci318 {
             Clause::ReducedLiveFactor => "5.3.3",
             Clause::ReleaseCompression => "24.5.3.1, Table 24.5.3.1",
             Clause::ReleaseTension => "24.5.3.2, Table 24.5.3.2",
-            Clause::ReleaseReinforcement => "24.5.3.2.1",
+            Clause::ReleaseReinforcement => "24.5.3.2.1 (the steel stress: R24.5.3.2.1)",
             Clause::ServiceCompression => "24.5.4.1, Table 24.5.4.1",
             Clause::MemberClass => "24.5.2.1, Table 24.5.2.1",
             Clause::ServiceCombinations => "24.5.1 (service loads); combinations of ASCE/SEI 7-16 2.4.1",
@@ -318,8 +318,8 @@ impl Basis for Aci318 {
         }
     }
 
-    /// 24.5.3.2.1: the reinforcement resists the tensile force at 0.6 fy, not more than
-    /// 30 ksi (210 MPa). From memory.
+    /// 24.5.3.2.1: the reinforcement resists the tensile force; its commentary
+    /// (R24.5.3.2.1) takes it at 0.6 fy, not more than 30 ksi (210 MPa). From memory.
     fn release_steel_stress(&self, fy: f64) -> (f64, &'static str) {
         match self.sys {
             System::Us => ((0.6 * fy).min(30.0), "0.6 fy, not more than 30 ksi"),

@@ -53,21 +53,22 @@ pub(super) fn options(cx: &mut Ctx, m: &raw::Member, has_loads: bool) -> Option<
     })
 }
 
-/// "L/360": the span over a number from 60 to 2,000 (ACI 318-19 Table 24.2.2 names 180,
-/// 240, 360 and 480).
+/// "L/360" or "L/180": the limits of ACI 318-19 Table 24.2.2 on the immediate
+/// deflection of the live load (its L/480 and L/240 rows limit the deflection after the
+/// attachment of nonstructural elements, long-term, which this version does not compute).
 fn deflection_limit(cx: &mut Ctx, text: &str) -> Option<f64> {
     let n = text
         .trim()
         .strip_prefix(['L', 'l'])
         .and_then(|r| r.trim_start().strip_prefix('/'))
         .and_then(|r| r.trim().parse::<f64>().ok())
-        .filter(|n| n.is_finite() && (60.0..=2000.0).contains(n));
+        .filter(|n| *n == 180.0 || *n == 360.0);
     if n.is_none() {
         cx.problem(
             "deflection_limit",
             format!("deflection_limit = {text:?} is not a limit this version reads"),
             Some(
-                "\"L/N\" with N from 60 to 2000, as \"L/360\" (ACI 318-19 Table 24.2.2: L/180, L/240, L/360, L/480)"
+                "\"L/360\" (floors) or \"L/180\" (flat roofs): the limits of ACI 318-19 Table 24.2.2 on the immediate live-load deflection; its L/480 and L/240 rows limit the deflection after attachment of nonstructural elements, which this version does not compute"
                     .to_string(),
             ),
         );

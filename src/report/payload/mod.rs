@@ -209,6 +209,8 @@ pub struct StressSummaryRow {
     pub release: String,
     pub service: String,
     pub reinforcement: String,
+    /// The live-load deflection against its limit, or why it is not given.
+    pub deflection: String,
     pub pass: bool,
     pub caution: bool,
 }
@@ -230,7 +232,17 @@ fn stress_summary(a: &Analysis) -> Vec<StressSummaryRow> {
                 },
                 service: at(s.worst_service),
                 reinforcement: if s.reinforcement.is_empty() { "—".into() } else { printed(steel) },
-                pass: s.pass,
+                deflection: match m.deflection.as_ref() {
+                    None => "—".into(),
+                    Some(d) => match (d.live, &d.limit_text, d.limit) {
+                        (None, _, _) => format!("not computed (class {})", s.class.letter()),
+                        (Some(v), Some(t), Some(l)) => {
+                            format!("{} {} {t} = {}", printed(v), if d.ok { "≤" } else { "EXCEEDS" }, printed(l))
+                        }
+                        (Some(v), _, _) => format!("{} (no limit chosen)", printed(v)),
+                    },
+                },
+                pass: s.pass && m.deflection.as_ref().is_none_or(|l| l.ok),
                 caution: !m.conditions.is_empty(),
             })
         })
@@ -340,7 +352,7 @@ fn package_shown(meta: &Meta, a: &Analysis) -> PackageShown {
         stresses_service_only: ids(&|m| m.stresses.as_ref().is_some_and(|s| !s.release.checked)),
         stresses_unchecked: ids(&|m| m.stresses.is_none()),
         camber_computed: ids(&|m| m.camber.is_some()),
-        deflection_not_computed: ids(&|m| m.camber.as_ref().is_some_and(|c| c.deflection.live.is_none())),
+        deflection_not_computed: ids(&|m| m.deflection.as_ref().is_some_and(|l| l.live.is_none())),
         title: meta.title.clone(),
         project: meta.project.clone(),
         project_number: meta.project_number.clone(),

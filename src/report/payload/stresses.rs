@@ -36,10 +36,12 @@ pub struct StressesShown {
     /// Camber and the live-load deflection, or why they are not computed.
     pub camber: Option<CamberShown>,
     pub camber_why_not: Option<String>,
+    /// The live-load deflection in words, and whether it is within its limit.
+    pub live: Option<String>,
+    pub live_ok: bool,
 }
 
-/// The camber table: each elastic component with its multipliers, the results, and the
-/// live-load deflection against its limit.
+/// The camber table: each elastic component with its multipliers, and the results.
 #[derive(Serialize)]
 pub struct CamberShown {
     pub x: String,
@@ -48,8 +50,6 @@ pub struct CamberShown {
     pub release: String,
     pub erection: String,
     pub final_camber: String,
-    pub live: String,
-    pub live_ok: bool,
 }
 
 /// The clauses the sheet cites, in full.
@@ -91,6 +91,8 @@ pub struct ReinforcementRow {
     pub force: String,
     pub fs: String,
     pub area: String,
+    pub provided: String,
+    pub ok: bool,
 }
 
 /// The top and bottom stresses along the member at release and under all service loads,
@@ -127,8 +129,14 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
     if let (Some(l), Some(fci)) = (&s.release.limits, s.release.fci) {
         release_limits = vec![
             ("f'ci".to_string(), st(fci)),
-            ("Compression (at the ends)".to_string(), format!("{} ({})", st(l.compression), st(l.compression_end))),
-            ("Tension (at the ends)".to_string(), format!("{} ({})", st(l.tension), st(l.tension_end))),
+            (
+                "Compression away from the ends (at the ends)".to_string(),
+                format!("{} ({})", st(l.compression), st(l.compression_end)),
+            ),
+            (
+                "Tension away from the ends (at the ends)".to_string(),
+                format!("{} ({})", st(l.tension), st(l.tension_end)),
+            ),
             (
                 "End zone, from each end".to_string(),
                 format!("{} {}", printed(s.release.end_zone.unwrap_or(0.0)), u.length),
@@ -145,7 +153,7 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
     }
     service_limits.push(("Class U up to / class T up to".to_string(), format!("{} / {}", st(s.ft_u), st(s.ft_t))));
     let class_text = format!(
-        "largest tension at the bottom under all service loads between the bearings: ft = {} at x = {} {}; {}",
+        "the bottom fibre's largest stress under all service loads between the bearings (tension positive): ft = {} at x = {} {}; {}",
         st(s.ft),
         printed(s.ft_x),
         u.length,
@@ -186,6 +194,8 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
                 force: printed(r.tension_force),
                 fs: printed(r.fs),
                 area: printed(r.area),
+                provided: printed(r.provided),
+                ok: r.ok,
             })
             .collect(),
         reinforcement_fy: st(reinforcement_fy),
@@ -200,14 +210,16 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
             combinations: basis.cite(Clause::ServiceCombinations),
         },
         plot: plot(m, s, sys),
-        camber: m.camber.as_ref().map(|c| camber(c, s, &u)),
+        camber: m.camber.as_ref().map(camber),
+        live: m.deflection.as_ref().map(|d| live_text(d, s, &u)),
+        live_ok: m.deflection.as_ref().is_none_or(|d| d.ok),
         camber_why_not: m.camber.is_none().then(|| {
             "the camber rests on the release stage (Eci and the stress just after release), which is not checked for this member".to_string()
         }),
     }
 }
 
-fn camber(c: &crate::analysis::camber::Camber, s: &MemberStresses, u: &crate::units::UnitNames) -> CamberShown {
+fn camber(c: &crate::analysis::camber::Camber) -> CamberShown {
     let k = c.multipliers;
     let mult = |v: f64| format!("{v:.2}");
     let mut rows = vec![
@@ -233,8 +245,18 @@ fn camber(c: &crate::analysis::camber::Camber, s: &MemberStresses, u: &crate::un
         "—".into(),
         mult(k.final_superimposed),
     ]);
-    let d = &c.deflection;
-    let live = match (d.live, &d.limit_text, d.limit) {
+    CamberShown {
+        x: printed(c.x),
+        rows,
+        release: printed(c.release),
+        erection: printed(c.erection),
+        final_camber: printed(c.final_camber),
+    }
+}
+
+/// The live-load deflection against its limit, in words.
+fn live_text(d: &crate::analysis::camber::LiveDeflection, s: &MemberStresses, u: &crate::units::UnitNames) -> String {
+    match (d.live, &d.limit_text, d.limit) {
         (None, _, _) => format!("not computed: {}", d.why_not.clone().unwrap_or_default()),
         (Some(v), Some(t), Some(l)) => format!(
             "{} {} of {} (class {}), {} the limit {t} = {} {}",
@@ -253,15 +275,6 @@ fn camber(c: &crate::analysis::camber::Camber, s: &MemberStresses, u: &crate::un
             d.load,
             s.class.letter()
         ),
-    };
-    CamberShown {
-        x: printed(c.x),
-        rows,
-        release: printed(c.release),
-        erection: printed(c.erection),
-        final_camber: printed(c.final_camber),
-        live,
-        live_ok: d.ok,
     }
 }
 
@@ -271,14 +284,18 @@ fn row(r: &StationRow, s: &MemberStresses) -> StressRow {
     let empty = || [Cell { text: "—".into(), over: false }, Cell { text: "—".into(), over: false }];
     let rel = stage("release");
     let reinforced = s.reinforcement.iter().any(|q| (q.x - r.x).abs() <= 1e-9 * r.x.abs().max(1.0));
-    let failed = r.stresses.iter().any(|t| {
-        [&t.top, &t.bottom].into_iter().chain(t.topping_top.as_ref()).any(|f| !f.ok())
-            && !(t.stage == "release" && reinforced && t.top.stress.max(t.bottom.stress) > 0.0)
-    });
+    let steel_short = s.reinforcement.iter().any(|q| (q.x - r.x).abs() <= 1e-9 * r.x.abs().max(1.0) && !q.ok);
+    let failed = steel_short
+        || r.stresses.iter().any(|t| {
+            [&t.top, &t.bottom]
+                .into_iter()
+                .chain(t.topping_top.as_ref())
+                .any(|f| !(f.ok() || (t.stage == "release" && reinforced && f.stress > 0.0)))
+        });
     let worst = r.stresses.iter().map(StageStress::worst).fold(0.0, f64::max);
     StressRow {
         x: printed(r.x),
-        end_zone: s.release.end_zone.is_some_and(|z| r.x.min(s.length - r.x) <= z),
+        end_zone: s.release.end_zone.is_some_and(|z| crate::analysis::stresses::in_end_zone(r.x, s.length, z)),
         release: rel.map(pair),
         sustained: stage("sustained").map_or_else(empty, pair),
         service: stage("service").map_or_else(empty, pair),
