@@ -72,6 +72,10 @@ struct LocationJson<'a> {
     conclusion: &'a str,
     strands: Vec<LayerJson>,
     bars: Vec<LayerJson>,
+    /// A named location along a member with loads: its stresses (in `locations` only:
+    /// the member's own `stresses` is the summary).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    stresses: Option<&'a [crate::analysis::stresses::StageStress]>,
 }
 
 fn location_json(l: &LocationResult, top_level: bool) -> LocationJson<'_> {
@@ -100,6 +104,7 @@ fn location_json(l: &LocationResult, top_level: bool) -> LocationJson<'_> {
         conclusion: &l.conclusion,
         strands: l.strands.iter().map(|s| layer_json(s, true)).collect(),
         bars: l.bars.iter().map(|s| layer_json(s, false)).collect(),
+        stresses: (!top_level && !l.stresses.is_empty()).then_some(l.stresses.as_slice()),
     }
 }
 

@@ -1046,3 +1046,16 @@ fn check_fails_a_stress_beyond_its_limit_and_passes_it_reinforced() {
         }
     }
 }
+
+// [spec] a named location along a member with loads has its stresses too, the same as
+// a station at its x would have (here the tenth point x = 48 in of SA-1), in
+// members[].locations[].stresses; the member's summary takes them in.
+#[test]
+fn a_named_location_has_its_stresses() {
+    let body = format!("{SA1}[[member.location]]\nname = \"tenth point\"\nx = 48.0\n");
+    let o = checked(&body);
+    let loc =
+        o.json["locations"].as_array().unwrap().iter().find(|l| l["name"] == "tenth point").expect("the location");
+    assert_eq!(loc["stresses"], o.station(48.0)["stresses"], "the location's stresses are the station's");
+    assert_eq!(loc["stresses"].as_array().map(Vec::len), Some(3), "release, sustained, service");
+}

@@ -75,6 +75,7 @@ fn solved_result(
     let strength_ok = ratio <= 1.0;
     let checked = Checked { mu, pe, e, phi, phi_mn, ratio, strength_ok, mcr, cracked_first, minr, alone, notes, tr };
     LocationResult {
+        stresses: Vec::new(),
         c: st.c,
         a: st.a,
         eps_cu: model.ecu,
@@ -299,6 +300,7 @@ fn unsolved(p: &Prepared, loc: &Station, at: &[StrandAt], c: Checked) -> Locatio
     let mut steps = c.tr.steps;
     name_conversions(p.sys, &mut steps);
     LocationResult {
+        stresses: Vec::new(),
         name: loc.name.clone(),
         x: loc.x,
         mu: c.mu,

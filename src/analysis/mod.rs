@@ -187,7 +187,8 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
         locations.push(r);
     }
     let mut stations = stations;
-    let stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut tr));
+    let named = m.locations.len();
+    let stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut locations[..named], &mut tr));
     let conditions = stresses.as_ref().map_or_else(Vec::new, |s| stress_conditions(s, sys));
     let camber = match (&demand, &stresses) {
         (Some(d), Some(s)) if s.release.checked => camber::of_member(&p, d, &mut tr),
@@ -275,16 +276,28 @@ fn stresses_along(
     p: &prepare::Prepared,
     d: &demand::Demand,
     rows: &mut [StationRow],
+    named: &mut [LocationResult],
     tr: &mut Trace,
 ) -> stresses::MemberStresses {
-    let xs: Vec<f64> = rows.iter().map(|r| r.x).collect();
-    let (summary, per_station) = stresses::of_member(p, d, &xs, tr);
-    for (row, st) in rows.iter_mut().zip(per_station) {
+    // the stations, then the named locations that lie on the member
+    let len = d.length;
+    let on: Vec<usize> = (0..named.len()).filter(|&i| named[i].x.is_some_and(|x| x > 0.0 && x < len)).collect();
+    let mut xs: Vec<f64> = rows.iter().map(|r| r.x).collect();
+    xs.extend(on.iter().filter_map(|&i| named[i].x));
+    let (summary, mut per_x) = stresses::of_member(p, d, &xs, tr);
+    let at_named = per_x.split_off(rows.len());
+    for (row, st) in rows.iter_mut().zip(per_x) {
         row.stresses = st;
     }
+    for (&i, st) in on.iter().zip(at_named) {
+        named[i].stresses = st;
+    }
+    let all: Vec<(f64, &Vec<stresses::StageStress>)> = (rows.iter().map(|r| (r.x, &r.stresses)))
+        .chain(on.iter().filter_map(|&i| named[i].x.map(|x| (x, &named[i].stresses))))
+        .collect();
     for stage in ["release", "sustained", "service"] {
-        let worst = (rows.iter())
-            .filter_map(|r| r.stresses.iter().find(|s| s.stage == stage).map(|s| (r.x, s)))
+        let worst = (all.iter())
+            .filter_map(|(x, st)| st.iter().find(|s| s.stage == stage).map(|s| (*x, s)))
             // the first of equals, as the member's summary names it
             .fold(None, |best: Option<(f64, &stresses::StageStress)>, c| match best {
                 Some(b) if b.1.worst() >= c.1.worst() => Some(b),

@@ -181,6 +181,10 @@ pub struct PrestressAloneOut {
 #[derive(Debug, Clone, Serialize)]
 pub struct LocationResult {
     pub name: String,
+    /// The stresses at release, sustained and in service at a named location along a
+    /// member with loads (empty elsewhere).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub stresses: Vec<super::stresses::StageStress>,
     pub x: Option<f64>,
     pub mu: f64,
     pub pe: f64,

@@ -4,8 +4,8 @@
 
 use super::curve::{Axes, Tick, tick_label, ticks};
 use super::printed;
+use crate::analysis::MemberResult;
 use crate::analysis::stresses::{Fibre, MemberStresses, StageStress};
-use crate::analysis::{MemberResult, StationRow};
 use crate::basis::{Basis, Clause};
 use crate::trace::ratio_text;
 use serde::Serialize;
@@ -74,6 +74,8 @@ pub struct Cell {
 #[derive(Serialize)]
 pub struct StressRow {
     pub x: String,
+    /// The name of a named location (the stations have none).
+    pub name: Option<String>,
     pub end_zone: bool,
     pub release: Option<[Cell; 2]>,
     pub sustained: [Cell; 2],
@@ -124,7 +126,17 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
     let sys = basis.units();
     let u = sys.names();
     let st = |v: f64| format!("{} {}", printed(v), u.stress);
-    let rows: Vec<StressRow> = m.stations.iter().map(|r| row(r, s)).collect();
+    // the stations and the named locations, in order of x
+    let mut at: Vec<(f64, Option<&str>, &[StageStress])> =
+        m.stations.iter().map(|r| (r.x, None, r.stresses.as_slice())).collect();
+    at.extend(
+        m.locations
+            .iter()
+            .filter(|l| !l.stresses.is_empty())
+            .filter_map(|l| Some((l.x?, Some(l.name.as_str()), l.stresses.as_slice()))),
+    );
+    at.sort_by(|a, b| a.0.total_cmp(&b.0));
+    let rows: Vec<StressRow> = at.iter().map(|&(x, name, st)| row(x, name, st, s)).collect();
     let mut release_limits = Vec::new();
     if let (Some(l), Some(fci)) = (&s.release.limits, s.release.fci) {
         release_limits = vec![
@@ -278,24 +290,25 @@ fn live_text(d: &crate::analysis::camber::LiveDeflection, s: &MemberStresses, u:
     }
 }
 
-fn row(r: &StationRow, s: &MemberStresses) -> StressRow {
-    let stage = |name: &str| r.stresses.iter().find(|t| t.stage == name);
+fn row(x: f64, name: Option<&str>, stresses: &[StageStress], s: &MemberStresses) -> StressRow {
+    let stage = |name: &str| stresses.iter().find(|t| t.stage == name);
     let pair = |t: &StageStress| [cell(&t.top), cell(&t.bottom)];
     let empty = || [Cell { text: "—".into(), over: false }, Cell { text: "—".into(), over: false }];
     let rel = stage("release");
-    let reinforced = s.reinforcement.iter().any(|q| (q.x - r.x).abs() <= 1e-9 * r.x.abs().max(1.0));
-    let steel_short = s.reinforcement.iter().any(|q| (q.x - r.x).abs() <= 1e-9 * r.x.abs().max(1.0) && !q.ok);
+    let reinforced = s.reinforcement.iter().any(|q| (q.x - x).abs() <= 1e-9 * x.abs().max(1.0));
+    let steel_short = s.reinforcement.iter().any(|q| (q.x - x).abs() <= 1e-9 * x.abs().max(1.0) && !q.ok);
     let failed = steel_short
-        || r.stresses.iter().any(|t| {
+        || stresses.iter().any(|t| {
             [&t.top, &t.bottom]
                 .into_iter()
                 .chain(t.topping_top.as_ref())
                 .any(|f| !(f.ok() || (t.stage == "release" && reinforced && f.stress > 0.0)))
         });
-    let worst = r.stresses.iter().map(StageStress::worst).fold(0.0, f64::max);
+    let worst = stresses.iter().map(StageStress::worst).fold(0.0, f64::max);
     StressRow {
-        x: printed(r.x),
-        end_zone: s.release.end_zone.is_some_and(|z| crate::analysis::stresses::in_end_zone(r.x, s.length, z)),
+        x: printed(x),
+        name: name.map(str::to_string),
+        end_zone: s.release.end_zone.is_some_and(|z| crate::analysis::stresses::in_end_zone(x, s.length, z)),
         release: rel.map(pair),
         sustained: stage("sustained").map_or_else(empty, pair),
         service: stage("service").map_or_else(empty, pair),
