@@ -284,7 +284,13 @@ fn stresses_along(
     let on: Vec<usize> = (0..named.len()).filter(|&i| named[i].x.is_some_and(|x| x > 0.0 && x < len)).collect();
     let mut xs: Vec<f64> = rows.iter().map(|r| r.x).collect();
     xs.extend(on.iter().filter_map(|&i| named[i].x));
-    let (summary, mut per_x) = stresses::of_member(p, d, &xs, tr);
+    // then the points between them where a fine scan finds a stage, or the class's bottom
+    // tension, beyond what the stations and locations show
+    let between = stresses::between(p, d, &xs);
+    let n = xs.len();
+    xs.extend(between.iter().map(|b| b.0));
+    let (mut summary, mut per_x) = stresses::of_member(p, d, &xs, tr);
+    let at_between = per_x.split_off(n);
     let at_named = per_x.split_off(rows.len());
     for (row, st) in rows.iter_mut().zip(per_x) {
         row.stresses = st;
@@ -292,8 +298,12 @@ fn stresses_along(
     for (&i, st) in on.iter().zip(at_named) {
         named[i].stresses = st;
     }
+    summary.between = (between.into_iter().zip(at_between))
+        .map(|((x, why), stresses)| stresses::Between { x, why, stresses })
+        .collect();
     let all: Vec<(f64, &Vec<stresses::StageStress>)> = (rows.iter().map(|r| (r.x, &r.stresses)))
         .chain(on.iter().filter_map(|&i| named[i].x.map(|x| (x, &named[i].stresses))))
+        .chain(summary.between.iter().map(|b| (b.x, &b.stresses)))
         .collect();
     for stage in ["release", "sustained", "service"] {
         let worst = (all.iter())
@@ -307,6 +317,7 @@ fn stresses_along(
             stresses::record_station(p, d, x, s, tr);
         }
     }
+    drop(all);
     summary
 }
 

@@ -153,6 +153,77 @@ pub struct MemberStresses {
     pub worst_release: Option<(f64, f64)>,
     pub worst_service: (f64, f64),
     pub pass: bool,
+    /// Points between the stations where a fine scan found a stage (or the class's bottom
+    /// tension) beyond what the stations and named locations show: checked as they are.
+    pub between: Vec<Between>,
+}
+
+/// A point between the stations, with why it is checked and its stages.
+#[derive(Debug, Clone, Serialize)]
+pub struct Between {
+    pub x: f64,
+    pub why: String,
+    pub stresses: Vec<StageStress>,
+}
+
+/// The points of a fine scan along the member (400 equal parts) where a stage's worst
+/// stress-to-limit ratio, or the bottom tension under all service loads between the
+/// bearings, exceeds the largest at `xs` (by more than 1 part in 10⁶): each with why.
+pub(super) fn between(p: &Prepared, d: &Demand, xs: &[f64]) -> Vec<(f64, String)> {
+    const PARTS: usize = 400;
+    let cx = context(p, d);
+    let len = d.length;
+    let known: Vec<Vec<StageStress>> = xs.iter().map(|&x| at(&cx, x)).collect();
+    let mut grid: Vec<f64> = (1..PARTS).map(|k| len * k as f64 / PARTS as f64).collect();
+    // just past each end zone, where the release limits drop to those away from the ends
+    // while the stresses have not yet changed
+    if cx.release.is_some() && cx.end_zone > 0.0 && cx.end_zone < len / 2.0 {
+        let past = cx.end_zone * (1.0 + 1e-6) + 1e-6 * len;
+        grid.extend([past, len - past]);
+    }
+    let scan: Vec<Vec<StageStress>> = grid.iter().map(|&x| at(&cx, x)).collect();
+    let mut out: Vec<(f64, String)> = Vec::new();
+    let mut add = |x: f64, why: String| {
+        if !out.iter().any(|(y, _)| (y - x).abs() <= 1e-9 * len) {
+            out.push((x, why));
+        }
+    };
+    for stage in ["release", "sustained", "service"] {
+        let worst_of = |rows: &[Vec<StageStress>], xs: &[f64]| {
+            (xs.iter().zip(rows))
+                .filter_map(|(x, r)| r.iter().find(|s| s.stage == stage).map(|s| (s.worst(), *x)))
+                .fold(None, |a: Option<(f64, f64)>, b| match a {
+                    Some(a) if a.0 >= b.0 => Some(a),
+                    _ => Some(b),
+                })
+        };
+        if let (Some(k), Some(g)) = (worst_of(&known, xs), worst_of(&scan, &grid))
+            && g.0 > k.0 * (1.0 + 1e-6)
+            && g.0 > 0.0
+        {
+            let past_end_zone = (g.1.min(len - g.1) - cx.end_zone).abs() <= 1e-4 * len;
+            add(
+                g.1,
+                if past_end_zone && stage == "release" {
+                    "just past the end zone".into()
+                } else {
+                    format!("between stations: largest {stage} ratio")
+                },
+            );
+        }
+    }
+    let (lo, hi) = (d.bearing - 1e-9 * len, len - d.bearing + 1e-9 * len);
+    let ft_of = |rows: &[Vec<StageStress>], xs: &[f64]| {
+        (xs.iter().zip(rows))
+            .filter(|(x, _)| **x >= lo && **x <= hi)
+            .filter_map(|(x, r)| r.iter().find(|s| s.stage == "service").map(|s| (s.bottom.stress, *x)))
+            .fold((f64::NEG_INFINITY, 0.0), |a, b| if b.0 > a.0 { b } else { a })
+    };
+    let (k, g) = (ft_of(&known, xs), ft_of(&scan, &grid));
+    if g.0 > k.0 + 1e-6 * k.0.abs().max(1e-3) {
+        add(g.1, "between stations: largest bottom tension".into());
+    }
+    out
 }
 
 /// What the stages read of the member, once: the section's properties and the limits.
@@ -268,6 +339,7 @@ pub(super) fn of_member(
         worst_release,
         worst_service,
         pass,
+        between: Vec::new(),
     };
     (out, rows)
 }

@@ -135,6 +135,7 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
             .filter(|l| !l.stresses.is_empty())
             .filter_map(|l| Some((l.x?, Some(l.name.as_str()), l.stresses.as_slice()))),
     );
+    at.extend(s.between.iter().map(|b| (b.x, Some(b.why.as_str()), b.stresses.as_slice())));
     at.sort_by(|a, b| a.0.total_cmp(&b.0));
     let rows: Vec<StressRow> = at.iter().map(|&(x, name, st)| row(x, name, st, s)).collect();
     let mut release_limits = Vec::new();
