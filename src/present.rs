@@ -443,8 +443,12 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
             (true, true) => at(s.worst_release),
             (true, false) => format!("{} (tension reinforced)", at(s.worst_release)),
         };
+        // the station nearest to short (the largest required over provided)
         let steel =
-            s.reinforcement.iter().map(|r| r.area).fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))));
+            s.reinforcement.iter().fold(None, |a: Option<&crate::analysis::stresses::Reinforcement>, r| match a {
+                Some(a) if a.area * r.provided.max(1e-300) >= r.area * a.provided.max(1e-300) => Some(a),
+                _ => Some(r),
+            });
         let deflection_ok = m.deflection.as_ref().is_none_or(|l| l.ok);
         let ok = s.pass && deflection_ok;
         let mut result = if ok { "pass".to_string() } else { "FAIL".to_string() };
@@ -476,7 +480,10 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
             show(s.ft),
             release,
             at(Some(s.worst_service)),
-            steel.map_or_else(|| "-".into(), |v| format!("{} (largest)", show(v))),
+            steel.map_or_else(
+                || "-".into(),
+                |r| format!("{} req / {} prov{}", show(r.area), show(r.provided), if r.ok { "" } else { " SHORT" }),
+            ),
             camber,
             live,
             result,
@@ -487,7 +494,7 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
     }
     let widths: Vec<usize> =
         (0..rows[0].len()).map(|c| rows.iter().map(|r| r[c].chars().count()).max().unwrap_or(0)).collect();
-    let mut out = "\nStresses at release and in service (tension positive; the worst stress against its limit over the stations), camber (upward) and the live-load deflection at mid-length:\n".to_string();
+    let mut out = "\nStresses at release and in service (tension positive; the worst stress against its limit along the member), camber (upward) and the live-load deflection at mid-length:\n".to_string();
     for (i, r) in rows.iter().enumerate() {
         let line: Vec<String> = r.iter().enumerate().map(|(c, cell)| format!("{cell:<w$}", w = widths[c])).collect();
         out.push_str(line.join("  ").trim_end());

@@ -202,3 +202,16 @@ fn a_single_point_harp_cambers_by_its_closed_form() {
     let handbook = p_release() * L * L / (eci() * I) * (ee / 8.0 + (ecen - ee) / 12.0);
     assert!((dp - handbook).abs() < 0.01 * handbook.abs(), "the transfer ramp changes it by under 1 %");
 }
+
+#[test]
+fn a_roof_limit_holds_the_roof_load_and_a_floor_limit_the_live_load() {
+    // [ACI] Table 24.2.2: L/180 (flat roofs) limits the larger of Lr, S and R; L/360
+    // (floors) limits L
+    let loads = "live = \"0.1 klf\"\nroof_live = \"0.2 klf\"\nsnow = \"0.15 klf\"";
+    for (limit, load, w) in [("L/180", "Lr", 0.2), ("L/360", "L", 0.1)] {
+        let opts = format!("[member.stresses]\ndeflection_limit = \"{limit}\"");
+        let (c, _) = camber_of(&member("", loads, &opts));
+        assert_eq!(c["deflection"]["load"], load, "{limit}");
+        same(limit, num(&c["deflection"]["live"], "live"), uniform(w / 12.0, ec(), I));
+    }
+}

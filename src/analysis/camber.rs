@@ -197,10 +197,19 @@ fn live(p: &Prepared, d: &Demand, class: Class) -> LiveDeflection {
     let (bearings, mid) = ((d.bearing, d.length - d.bearing), d.length / 2.0);
     let ic = p.composite.as_ref().map_or(p.precast.i, |c| c.i);
     let ei = p.m.concrete.ec * ic;
+    // the live load on the span alone, between the bearings (loaded overhangs would lift
+    // the middle: unconservative), point loads on the span only
+    let (a, b) = bearings;
     let of = |kind: LoadKind| {
         let mo = |x: f64| {
-            let u: f64 = d.uniform.iter().filter(|u| u.kind == kind).map(|u| d.uniform_moment(u.w, x)).sum();
-            let q: f64 = d.points.iter().filter(|q| q.kind == kind).map(|q| d.point_moment(q.p, q.x, x)).sum();
+            if x <= a || x >= b {
+                return 0.0;
+            }
+            let u: f64 = d.uniform.iter().filter(|u| u.kind == kind).map(|u| u.w * (x - a) * (b - x) / 2.0).sum();
+            let q: f64 = (d.points.iter())
+                .filter(|q| q.kind == kind && q.x >= a && q.x <= b)
+                .map(|q| d.point_moment(q.p, q.x, x))
+                .sum();
             u + q
         };
         virtual_work(&mo, bearings, mid, &nodes) / ei
@@ -208,11 +217,14 @@ fn live(p: &Prepared, d: &Demand, class: Class) -> LiveDeflection {
     let has = |kind: LoadKind| {
         d.uniform.iter().any(|u| u.kind == kind && u.w > 0.0) || d.points.iter().any(|q| q.kind == kind && q.p > 0.0)
     };
-    let (load, value) = if has(LoadKind::Live) || !(has(LoadKind::RoofLive) || has(LoadKind::Snow)) {
-        ("L", of(LoadKind::Live))
-    } else {
-        let (lr, s) = (of(LoadKind::RoofLive), of(LoadKind::Snow));
-        if lr >= s { ("Lr", lr) } else { ("S", s) }
+    let roof = |lr: f64, s: f64| if lr >= s { ("Lr", lr) } else { ("S", s) };
+    // L/180 (flat roofs) limits the larger of Lr and S; L/360 (floors) limits L; with no
+    // limit, L, or the larger of Lr and S on a member without L
+    let (load, value) = match p.m.stresses.deflection_limit {
+        Some(180.0) => roof(of(LoadKind::RoofLive), of(LoadKind::Snow)),
+        Some(_) => ("L", of(LoadKind::Live)),
+        None if has(LoadKind::Live) || !(has(LoadKind::RoofLive) || has(LoadKind::Snow)) => ("L", of(LoadKind::Live)),
+        None => roof(of(LoadKind::RoofLive), of(LoadKind::Snow)),
     };
     let span = d.span;
     let limit = p.m.stresses.deflection_limit;
@@ -353,7 +365,7 @@ fn record_live(p: &Prepared, d: &Demand, l: &LiveDeflection, tr: &mut Trace) {
                 _ => "; no limit chosen in the input ([member.stresses] deflection_limit)".into(),
             };
             st.note(format!(
-                "downward, of {} between the bearings, class U: the uncracked composite section, Ec, I = {} {len_u}⁴; {integral}{against}",
+                "downward, of {} on the span between the bearings (the overhangs unloaded), class U: the uncracked composite section, Ec, I = {} {len_u}⁴; {integral}{against}",
                 l.load,
                 show(ic)
             ))

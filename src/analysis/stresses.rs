@@ -188,28 +188,50 @@ pub(super) fn between(p: &Prepared, d: &Demand, xs: &[f64]) -> Vec<(f64, String)
             out.push((x, why));
         }
     };
+    // two measures of a stage at a point: its worst ratio as shown, and the ratio that
+    // decides the check (a reinforced tension at release counts by the steel it needs
+    // over the steel provided, not by its stress)
+    let reinforced = p.m.stresses.release_reinforcement;
+    let decides = |x: f64, st: &StageStress| -> f64 {
+        let mut r: f64 = st.topping_top.map_or(0.0, |t| t.ratio());
+        for (fibre, f) in [("top", &st.top), ("bottom", &st.bottom)] {
+            r = r.max(if st.stage == "release" && reinforced && f.stress > 0.0 && !f.ok() {
+                let steel = bonded_steel(&cx, x, fibre, st);
+                if steel.provided > 0.0 { steel.area / steel.provided } else { f64::INFINITY }
+            } else {
+                f.ratio()
+            });
+        }
+        r
+    };
     for stage in ["release", "sustained", "service"] {
-        let worst_of = |rows: &[Vec<StageStress>], xs: &[f64]| {
-            (xs.iter().zip(rows))
-                .filter_map(|(x, r)| r.iter().find(|s| s.stage == stage).map(|s| (s.worst(), *x)))
-                .fold(None, |a: Option<(f64, f64)>, b| match a {
-                    Some(a) if a.0 >= b.0 => Some(a),
-                    _ => Some(b),
-                })
+        let shown = |x: f64, st: &StageStress| -> f64 {
+            let _ = x;
+            st.worst()
         };
-        if let (Some(k), Some(g)) = (worst_of(&known, xs), worst_of(&scan, &grid))
-            && g.0 > k.0 * (1.0 + 1e-6)
-            && g.0 > 0.0
-        {
-            let past_end_zone = (g.1.min(len - g.1) - cx.end_zone).abs() <= 1e-4 * len;
-            add(
-                g.1,
-                if past_end_zone && stage == "release" {
-                    "just past the end zone".into()
-                } else {
-                    format!("between stations: largest {stage} ratio")
-                },
-            );
+        for measure in [&shown as &dyn Fn(f64, &StageStress) -> f64, &decides] {
+            let worst_of = |rows: &[Vec<StageStress>], xs: &[f64]| {
+                (xs.iter().zip(rows))
+                    .filter_map(|(x, r)| r.iter().find(|s| s.stage == stage).map(|s| (measure(*x, s), *x)))
+                    .fold(None, |a: Option<(f64, f64)>, b| match a {
+                        Some(a) if a.0 >= b.0 => Some(a),
+                        _ => Some(b),
+                    })
+            };
+            if let (Some(k), Some(g)) = (worst_of(&known, xs), worst_of(&scan, &grid))
+                && g.0 > k.0 * (1.0 + 1e-6)
+                && g.0 > 0.0
+            {
+                let past_end_zone = (g.1.min(len - g.1) - cx.end_zone).abs() <= 1e-4 * len;
+                add(
+                    g.1,
+                    if past_end_zone && stage == "release" {
+                        "just past the end zone".into()
+                    } else {
+                        format!("between stations: largest {stage} ratio")
+                    },
+                );
+            }
         }
     }
     let (lo, hi) = (d.bearing - 1e-9 * len, len - d.bearing + 1e-9 * len);
@@ -314,6 +336,7 @@ pub(super) fn of_member(
             }
         }
     }
+    reinforcement.sort_by(|a, b| a.x.total_cmp(&b.x));
     record_member(&cx, tr, ft_u, ft_t);
     let release = ReleaseOut {
         checked: cx.release.is_some(),
