@@ -335,28 +335,8 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
             ]);
         }
     }
-    let widths: Vec<usize> =
-        (0..rows[0].len()).map(|c| rows.iter().map(|r| r[c].chars().count()).max().unwrap_or(0)).collect();
     let mut out = format!("{} — {} ({} units)\n", pkg.meta.title, pkg.meta.project, pkg.units.label());
-    for (i, r) in rows.iter().enumerate() {
-        let line: Vec<String> = r
-            .iter()
-            .enumerate()
-            .map(|(c, cell)| {
-                if c < 2 || c == 5 || c == 8 || c == 14 {
-                    format!("{cell:<w$}", w = widths[c])
-                } else {
-                    format!("{cell:>w$}", w = widths[c])
-                }
-            })
-            .collect();
-        out.push_str(line.join("  ").trim_end());
-        out.push('\n');
-        if i == 0 {
-            out.push_str(&"-".repeat(widths.iter().sum::<usize>() + 2 * (widths.len() - 1)));
-            out.push('\n');
-        }
-    }
+    out.push_str(&text_table(&rows, &|c| c < 2 || c == 5 || c == 8 || c == 14));
     out.push_str(&stress_table(a, &u, &mut open));
     if !open.is_empty() {
         out.push_str("Open conditions (the result holds only once each is settled):\n");
@@ -456,16 +436,7 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
             None => "not computed (no release stage)".to_string(),
             Some(c) => format!("{} / {}", show(c.release), show(c.final_camber)),
         };
-        let live = match m.deflection.as_ref() {
-            None => "-".to_string(),
-            Some(d) => match (d.live, &d.limit_text, d.limit) {
-                (None, _, _) => format!("not computed (class {})", s.class.letter()),
-                (Some(v), Some(t), Some(l)) => {
-                    format!("{} {} {} = {}", show(v), if d.ok { "<=" } else { "EXCEEDS" }, t, show(l))
-                }
-                (Some(v), _, _) => format!("{} (no limit chosen)", show(v)),
-            },
-        };
+        let live = m.deflection.as_ref().map_or_else(|| "-".to_string(), |d| d.short(s.class.letter(), "<=", show));
         if ok && !m.conditions.is_empty() {
             let mut refs = Vec::new();
             for c in &m.conditions {
@@ -492,15 +463,30 @@ fn stress_table(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String
     if rows.len() == 1 {
         return String::new();
     }
-    let widths: Vec<usize> =
-        (0..rows[0].len()).map(|c| rows.iter().map(|r| r[c].chars().count()).max().unwrap_or(0)).collect();
     let mut out = "\nStresses at release and in service (tension positive; the worst stress against its limit along the member), camber (upward) and the live-load deflection at mid-length:\n".to_string();
+    out.push_str(&text_table(&rows, &|_| true));
+    out
+}
+
+/// Rows of cells as plain-text columns two spaces apart, a rule under the first (the
+/// header); `left(c)` says which columns align left (the others right).
+fn text_table(rows: &[Vec<String>], left: &dyn Fn(usize) -> bool) -> String {
+    let widths: Vec<usize> = (0..rows.first().map_or(0, Vec::len))
+        .map(|c| rows.iter().map(|r| r[c].chars().count()).max().unwrap_or(0))
+        .collect();
+    let mut out = String::new();
     for (i, r) in rows.iter().enumerate() {
-        let line: Vec<String> = r.iter().enumerate().map(|(c, cell)| format!("{cell:<w$}", w = widths[c])).collect();
+        let line: Vec<String> = (r.iter().enumerate())
+            .map(
+                |(c, cell)| {
+                    if left(c) { format!("{cell:<w$}", w = widths[c]) } else { format!("{cell:>w$}", w = widths[c]) }
+                },
+            )
+            .collect();
         out.push_str(line.join("  ").trim_end());
         out.push('\n');
         if i == 0 {
-            out.push_str(&"-".repeat(widths.iter().sum::<usize>() + 2 * (widths.len() - 1)));
+            out.push_str(&"-".repeat(widths.iter().sum::<usize>() + 2 * widths.len().saturating_sub(1)));
             out.push('\n');
         }
     }

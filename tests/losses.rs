@@ -118,35 +118,7 @@ fn compare(o: &Out, member: [f64; 10], layers: &[[f64; 6]]) {
     }
 }
 
-const MEMBER_A: &str = r#"
-[[member]]
-id = "ZA-1"
-length = 480.0
-[member.loads]
-superimposed_dead = "0.3 klf"
-live = "0.8 klf"
-[member.concrete]
-fc = 6.0
-fci = 4.5
-[member.losses]
-method = "zia-1979"
-relative_humidity = 70
-volume_to_surface = 3.0
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
-height = 3.0
-count = 6
-diameter = 0.5
-jacking = 0.75
-[[member.strands]]
-height = 6.0
-count = 4
-diameter = 0.5
-jacking = 0.72
-"#;
+const MEMBER_A: &str = COMPUTED_LOSSES_MEMBER;
 
 const LOSSES_TABLE: &str = "[member.losses]\nmethod = \"zia-1979\"\nrelative_humidity = 70\nvolume_to_surface = 3.0\n";
 

@@ -885,33 +885,9 @@ fn sg1_si_end_zone_by_the_contract() {
 // at least fse (the losses after release are not negative); the new table's keys known.
 #[test]
 fn input_errors_name_the_key() {
-    let computed = r#"
-[[member]]
-id = "ZA-1"
-length = 480.0
-[member.loads]
-superimposed_dead = "0.3 klf"
-live = "0.8 klf"
-[member.concrete]
-fc = 6.0
-fci = 4.5
-[member.losses]
-method = "zia-1979"
-relative_humidity = 70
-volume_to_surface = 3.0
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
-height = 3.0
-count = 6
-diameter = 0.5
-jacking = 0.75
-fpi = 190.0
-"#;
+    let computed = COMPUTED_LOSSES_MEMBER.replacen("jacking = 0.75\n", "jacking = 0.75\nfpi = 190.0\n", 1);
     let cases = [
-        ("fpi", computed.to_string()),
+        ("fpi", computed.clone()),
         ("sustained_live", SA1.replace("sustained_live = 0.4", "sustained_live = 1.5")),
         ("fpi", SA1.replace("fpi = 190.0", "fpi = 150.0")),
         ("sustained_liv", SA1.replace("sustained_live = 0.4", "sustained_liv = 0.4")),
@@ -956,37 +932,7 @@ fn release_not_checked_without_fci_or_an_fpi() {
 // tests/losses.rs (rectangle_two_layers_by_hand).
 #[test]
 fn computed_losses_give_the_release_force() {
-    let o = checked(
-        r#"
-[[member]]
-id = "ZA-1"
-length = 480.0
-[member.loads]
-superimposed_dead = "0.3 klf"
-live = "0.8 klf"
-[member.concrete]
-fc = 6.0
-fci = 4.5
-[member.losses]
-method = "zia-1979"
-relative_humidity = 70
-volume_to_surface = 3.0
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
-height = 3.0
-count = 6
-diameter = 0.5
-jacking = 0.75
-[[member.strands]]
-height = 6.0
-count = 4
-diameter = 0.5
-jacking = 0.72
-"#,
-    );
+    let o = checked(COMPUTED_LOSSES_MEMBER);
     let layer = |k: usize, key: &str| num(&o.json["prestress"][k][key], &format!("prestress[{k}].{key}"));
     let aps = [6.0 * 0.153, 4.0 * 0.153]; // [A416]
     let e_k = [9.0, 6.0]; // [spec] 12 - 3, 12 - 6 in

@@ -67,6 +67,21 @@ pub struct LiveDeflection {
     pub why_not: Option<String>,
 }
 
+impl LiveDeflection {
+    /// In a few words for a table: "0.12 <= L/360 = 1.17", "not computed (class T)" or
+    /// "0.12 (no limit chosen)"; `within` is the sign printed where the limit is met,
+    /// `number` writes a number.
+    pub fn short(&self, class: &str, within: &str, number: impl Fn(f64) -> String) -> String {
+        match (self.live, &self.limit_text, self.limit) {
+            (None, _, _) => format!("not computed (class {class})"),
+            (Some(v), Some(t), Some(l)) => {
+                format!("{} {} {t} = {}", number(v), if self.ok { within } else { "EXCEEDS" }, number(l))
+            }
+            (Some(v), _, _) => format!("{} (no limit chosen)", number(v)),
+        }
+    }
+}
+
 /// Camber and deflection of a member (lengths; camber upward positive, deflections
 /// downward positive).
 #[derive(Debug, Clone, Serialize)]

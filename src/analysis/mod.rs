@@ -306,18 +306,15 @@ fn stresses_along(
         .chain(summary.between.iter().map(|b| (b.x, &b.stresses)))
         .collect();
     for stage in ["release", "sustained", "service"] {
-        let worst = (all.iter())
-            .filter_map(|(x, st)| st.iter().find(|s| s.stage == stage).map(|s| (*x, s)))
-            // the first of equals, as the member's summary names it
-            .fold(None, |best: Option<(f64, &stresses::StageStress)>, c| match best {
-                Some(b) if b.1.worst() >= c.1.worst() => Some(b),
-                _ => Some(c),
-            });
+        // the first of equals, as the member's summary names it
+        let worst = stresses::first_largest(
+            (all.iter()).filter_map(|(x, st)| st.iter().find(|s| s.stage == stage).map(|s| (s.worst(), (*x, s)))),
+        )
+        .map(|(_, at)| at);
         if let Some((x, s)) = worst {
             stresses::record_station(p, d, x, s, tr);
         }
     }
-    drop(all);
     summary
 }
 

@@ -205,18 +205,13 @@ pub(super) fn between(p: &Prepared, d: &Demand, xs: &[f64]) -> Vec<(f64, String)
         r
     };
     for stage in ["release", "sustained", "service"] {
-        let shown = |x: f64, st: &StageStress| -> f64 {
-            let _ = x;
-            st.worst()
-        };
+        let shown = |_: f64, st: &StageStress| -> f64 { st.worst() };
         for measure in [&shown as &dyn Fn(f64, &StageStress) -> f64, &decides] {
             let worst_of = |rows: &[Vec<StageStress>], xs: &[f64]| {
-                (xs.iter().zip(rows))
-                    .filter_map(|(x, r)| r.iter().find(|s| s.stage == stage).map(|s| (measure(*x, s), *x)))
-                    .fold(None, |a: Option<(f64, f64)>, b| match a {
-                        Some(a) if a.0 >= b.0 => Some(a),
-                        _ => Some(b),
-                    })
+                first_largest(
+                    (xs.iter().zip(rows))
+                        .filter_map(|(x, r)| r.iter().find(|s| s.stage == stage).map(|s| (measure(*x, s), *x))),
+                )
             };
             if let (Some(k), Some(g)) = (worst_of(&known, xs), worst_of(&scan, &grid))
                 && g.0 > k.0 * (1.0 + 1e-6)
@@ -302,12 +297,8 @@ pub(super) fn of_member(
         Class::C
     };
     let worst = |stage: &str| {
-        xs.iter().zip(&rows).filter_map(|(x, r)| r.iter().find(|s| s.stage == stage).map(|s| (s.worst(), *x))).fold(
-            None,
-            |a: Option<(f64, f64)>, b| match a {
-                Some(a) if a.0 >= b.0 => Some(a),
-                _ => Some(b),
-            },
+        first_largest(
+            xs.iter().zip(&rows).filter_map(|(x, r)| r.iter().find(|s| s.stage == stage).map(|s| (s.worst(), *x))),
         )
     };
     let worst_release = worst("release");
@@ -365,6 +356,15 @@ pub(super) fn of_member(
         between: Vec::new(),
     };
     (out, rows)
+}
+
+/// The pair with the largest first value, the first of equals (in the order of the
+/// stations, as the summary and the derivations both name it).
+pub(super) fn first_largest<T>(pairs: impl Iterator<Item = (f64, T)>) -> Option<(f64, T)> {
+    pairs.fold(None, |best, c| match best {
+        Some(b) if b.0 >= c.0 => Some(b),
+        _ => Some(c),
+    })
 }
 
 /// Whether a station takes the end limits at release: within the longest transfer
@@ -631,9 +631,8 @@ fn record_member(cx: &Ctx, tr: &mut Trace, ft_u: f64, ft_t: f64) {
 
 /// The derivation of one stage's stresses at a station (the station governing that
 /// stage): the force and its eccentricity, the moments, and each fibre's stress.
-pub(super) fn record_station(cx_p: &Prepared, d: &Demand, x: f64, stage: &StageStress, tr: &mut Trace) {
-    let cx = context(cx_p, d);
-    let p = cx.p;
+pub(super) fn record_station(p: &Prepared, d: &Demand, x: f64, stage: &StageStress, tr: &mut Trace) {
+    let cx = context(p, d);
     let cv = p.cv;
     let tag = format!("stresses.{}", stage.stage);
     let id = |s: &str| format!("{tag}.{s}");

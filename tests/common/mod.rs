@@ -23,6 +23,39 @@ role = "checked"
 name = "C. Hecker"
 "#;
 
+/// A 12 x 24 in rectangle whose two strand layers take computed losses (Zia et al. 1979),
+/// with loads and f'ci: worked by hand in tests/losses.rs, its release force in
+/// tests/stresses.rs.
+pub const COMPUTED_LOSSES_MEMBER: &str = r#"
+[[member]]
+id = "ZA-1"
+length = 480.0
+[member.loads]
+superimposed_dead = "0.3 klf"
+live = "0.8 klf"
+[member.concrete]
+fc = 6.0
+fci = 4.5
+[member.losses]
+method = "zia-1979"
+relative_humidity = 70
+volume_to_surface = 3.0
+[member.section]
+shape = "rectangle"
+width = 12.0
+height = 24.0
+[[member.strands]]
+height = 3.0
+count = 6
+diameter = 0.5
+jacking = 0.75
+[[member.strands]]
+height = 6.0
+count = 4
+diameter = 0.5
+jacking = 0.72
+"#;
+
 pub const HEAD_SI: &str = r#"format = 1
 [package]
 title = "Test package"

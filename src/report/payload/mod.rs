@@ -232,16 +232,10 @@ fn stress_summary(a: &Analysis) -> Vec<StressSummaryRow> {
                 },
                 service: at(s.worst_service),
                 reinforcement: if s.reinforcement.is_empty() { "—".into() } else { printed(steel) },
-                deflection: match m.deflection.as_ref() {
-                    None => "—".into(),
-                    Some(d) => match (d.live, &d.limit_text, d.limit) {
-                        (None, _, _) => format!("not computed (class {})", s.class.letter()),
-                        (Some(v), Some(t), Some(l)) => {
-                            format!("{} {} {t} = {}", printed(v), if d.ok { "≤" } else { "EXCEEDS" }, printed(l))
-                        }
-                        (Some(v), _, _) => format!("{} (no limit chosen)", printed(v)),
-                    },
-                },
+                deflection: m
+                    .deflection
+                    .as_ref()
+                    .map_or_else(|| "—".into(), |d| d.short(s.class.letter(), "≤", printed)),
                 pass: s.pass && m.deflection.as_ref().is_none_or(|l| l.ok),
                 caution: !m.conditions.is_empty(),
             })
