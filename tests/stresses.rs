@@ -1012,3 +1012,86 @@ fn a_named_location_has_its_stresses() {
     assert_eq!(loc["stresses"], o.station(48.0)["stresses"], "the location's stresses are the station's");
     assert_eq!(loc["stresses"].as_array().map(Vec::len), Some(3), "release, sustained, service");
 }
+
+// ---------------------------------------------------------------------------------------
+// (i) The development length of debonded strand is doubled where the design has tension
+// in the precompressed tensile zone under service loads, and only there: ACI 318-19
+// 25.4.8.1(a) and (b) (from memory): ld = (fse / 3000) db + ((fps - fse) / 1000) db,
+// psi; doubled "if bonding of a strand does not extend to the end of the member and the
+// design includes tension at service loads in the precompressed tensile zone".
+// ---------------------------------------------------------------------------------------
+
+fn sh(id: &str, live: &str) -> String {
+    format!(
+        r##"
+[[member]]
+id = "{id}"
+length = 480.0
+[member.loads]
+superimposed_dead = "0.2 klf"
+live = "{live} klf"
+[member.concrete]
+fc = 6.0
+[member.section]
+shape = "rectangle"
+width = 12.0
+height = 24.0
+[[member.strands]]
+height = 3.0
+count = 4
+diameter = 0.5
+fse = 150.0
+[[member.strands]]
+height = 3.0
+count = 2
+diameter = 0.5
+fse = 150.0
+debonded_length = 48.0
+[[member.location]]
+name = "in the debonded layer's development"
+x = 72.0
+"##
+    )
+}
+
+#[test]
+fn debonded_strand_development_doubled_only_with_service_tension() {
+    // by hand at midspan, where the bottom tension is largest (SH-2): Pe = 150 × 6 × 0.153 kip
+    // [A416], e = 12 - 3 = 9 in; M = (w_sw + 0.2 + live) L² / 8 [statics], w_sw = 288 in²
+    // × 150 pcf [wc] = 0.3 klf
+    let (a, s) = (288.0, 13_824.0 / 12.0); // [statics] A = 12 × 24, Sb = b h² / 6
+    let pe = 150.0 * 6.0 * 0.153;
+    let ft = |live: f64| -pe / a - pe * 9.0 / s + (0.3 + 0.2 + live) / 12.0 * 480.0 * 480.0 / 8.0 / s;
+    for (id, text, live, tension) in [("SH-1", "0.1", 0.1, false), ("SH-2", "0.5", 0.5, true)] {
+        assert_eq!(ft(live) > 0.0, tension, "{id}: by hand ft = {}", ft(live));
+        let pkg = parse(&format!("{HEAD_US}{}", sh(id, text)));
+        let a = analysis::analyze(&pkg, true).expect("analysis");
+        let doc = serde_json::to_value(present::check_document(&pkg, &a)).unwrap();
+        let program_ft = num(&doc["members"][0]["stresses"]["ft"], "ft");
+        if tension {
+            same(&format!("{id}: ft"), program_ft, ft(live));
+        } else {
+            // the bottom is compressed everywhere: at midspan by hand; within the first
+            // transfer length (x ≤ 25 in, layer 1 alone, debonded layer 2 inactive) the
+            // bottom stress is x (-(91.8 / 25)(1/288 + 9/1152) + w (480 - x) / (2 × 12 ×
+            // 1152)) < 0 for w = 0.6 klf; in between both grow toward midspan
+            assert!(program_ft <= 0.0, "{id}: no tension at the bottom, the program finds ft = {program_ft}");
+            let w = 0.6 / 12.0;
+            assert!(-(91.8 / 25.0) * (1.0 / 288.0 + 9.0 / 1152.0) + w * 480.0 / 2.0 / 1152.0 < 0.0);
+        }
+        let trace = &a.members[0].locations[0].trace;
+        for (k, debonded) in [(1, false), (2, true)] {
+            let step = trace.iter().find(|st| st.id == format!("L1.dev.ld.{k}")).expect("the development step");
+            let input = |name: &str| step.inputs.iter().find(|i| i.symbol.plain == name).expect(name).value;
+            let (fse, fps, db) = (input(&format!("fse,{k}")), input(&format!("fps,{k}")), input("db"));
+            let single = fse / 3.0 * db + (fps - fse) * db; // [ACI] 25.4.8.1(a), ksi
+            let factor = if debonded && tension { 2.0 } else { 1.0 }; // [ACI] 25.4.8.1(b)
+            same(&format!("{id}: ld of layer {k}"), step.value, factor * single);
+            let note = step.note.as_deref().unwrap_or_default();
+            if debonded {
+                let says = if tension { "doubled for strand" } else { "not doubled" };
+                assert!(note.contains(says), "{id}: layer {k}'s step says why: {note}");
+            }
+        }
+    }
+}

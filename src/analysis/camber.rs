@@ -65,6 +65,31 @@ pub struct LiveDeflection {
     pub limit_text: Option<String>,
     pub ok: bool,
     pub why_not: Option<String>,
+    /// The bilinear relation of a class T or C member (`None`: class U, gross section).
+    pub cracked: Option<Bilinear>,
+}
+
+/// The bilinear moment-deflection relation of a class T or C member (24.2.3.9), as the
+/// PCI Design Handbook applies it (from memory): the uncracked composite section up to
+/// the live moment that brings the bottom fibre at midspan to the modulus of rupture fr,
+/// the cracked transformed section for the rest of the live moment.
+#[derive(Debug, Clone, Serialize)]
+pub struct Bilinear {
+    /// The deflection on the uncracked section, Ic and Icr (in the precast concrete's
+    /// Ec), the cracked neutral axis's depth below the top.
+    pub gross: f64,
+    pub ic: f64,
+    pub icr: f64,
+    pub depth: f64,
+    /// At midspan: the bottom stress under the prestress and the dead load, the bottom
+    /// section modulus, fr, the live moment that cracks the bottom (shown moment), the
+    /// live moment, and the share of it on the uncracked section.
+    pub dead_bottom: f64,
+    pub sb: f64,
+    pub fr: f64,
+    pub m_cr: f64,
+    pub m_live: f64,
+    pub share: f64,
 }
 
 impl LiveDeflection {
@@ -227,12 +252,12 @@ fn live(p: &Prepared, d: &Demand, class: Class) -> LiveDeflection {
                 .sum();
             u + q
         };
-        virtual_work(&mo, bearings, mid, &nodes) / ei
+        (virtual_work(&mo, bearings, mid, &nodes) / ei, mo(mid))
     };
     let has = |kind: LoadKind| {
         d.uniform.iter().any(|u| u.kind == kind && u.w > 0.0) || d.points.iter().any(|q| q.kind == kind && q.p > 0.0)
     };
-    let roof = |lr: f64, s: f64| if lr >= s { ("Lr", lr) } else { ("S", s) };
+    let roof = |lr: (f64, f64), s: (f64, f64)| if lr.0 >= s.0 { ("Lr", lr) } else { ("S", s) };
     // L/180 (flat roofs) limits the larger of Lr and S; L/360 (floors) limits L; with no
     // limit, L, or the larger of Lr and S on a member without L
     let (load, value) = match p.m.stresses.deflection_limit {
@@ -246,30 +271,59 @@ fn live(p: &Prepared, d: &Demand, class: Class) -> LiveDeflection {
     let limit_value = limit.map(|n| span / n);
     let limit_text =
         limit.map(|n| if n.fract() == 0.0 { format!("L/{n:.0}") } else { format!("L/{}", crate::trace::show(n)) });
-    if class != Class::U {
-        return LiveDeflection {
-            live: None,
-            load,
-            limit: limit_value,
-            limit_text,
-            ok: true,
-            why_not: Some(format!(
-                "class {}: the deflection needs the cracked section (a bilinear moment-deflection relation or an effective moment of inertia, ACI 318-19 24.2.3.9), which this version does not compute",
-                match class {
-                    Class::T => "T",
-                    _ => "C",
-                }
-            )),
-        };
-    }
-    LiveDeflection {
-        live: Some(value),
+    let (gross, m_live) = value;
+    let mut out = LiveDeflection {
+        live: Some(gross),
         load,
         limit: limit_value,
         limit_text,
-        ok: limit_value.is_none_or(|l| value <= l * (1.0 + 1e-9)),
+        ok: true,
         why_not: None,
+        cracked: None,
+    };
+    if class != Class::U {
+        match bilinear(p, d, gross, m_live) {
+            Ok(b) => {
+                out.live = Some(b.gross * b.share + b.gross * b.ic / b.icr * (1.0 - b.share));
+                out.cracked = Some(b);
+            }
+            Err(why) => {
+                out.live = None;
+                out.why_not = Some(format!(
+                    "class {}: the deflection needs the cracked section (ACI 318-19 24.2.3.9), and {why}",
+                    if class == Class::T { "T" } else { "C" }
+                ));
+            }
+        }
     }
+    out.ok = out.live.is_none_or(|v| limit_value.is_none_or(|l| v <= l * (1.0 + 1e-9)));
+    out
+}
+
+/// The bilinear relation at midspan for a live load with deflection `gross` on the
+/// uncracked section and moment `m_live` at midspan.
+fn bilinear(p: &Prepared, d: &Demand, gross: f64, m_live: f64) -> Result<Bilinear, String> {
+    let mid = d.length / 2.0;
+    let ic = p.composite.as_ref().map_or(p.precast.i, |c| c.i);
+    let (y, icr) = super::cracked::Transformed::at(p, mid)
+        .bending()
+        .ok_or("the cracked transformed section at midspan has no neutral axis within the section")?;
+    let (dead_bottom, sb) = super::stresses::dead_bottom(p, d, mid);
+    let fr = p.m.concrete.fr;
+    let m_cr = (fr - dead_bottom).max(0.0) * sb;
+    let share = if m_live > m_cr { m_cr / m_live } else { 1.0 };
+    Ok(Bilinear {
+        gross,
+        ic,
+        icr,
+        depth: p.top - y,
+        dead_bottom,
+        sb,
+        fr,
+        m_cr: m_cr * p.cv.km,
+        m_live: m_live * p.cv.km,
+        share,
+    })
 }
 
 fn record(p: &Prepared, d: &Demand, c: &Camber, (eci, ec, i, ic): (f64, f64, f64, f64), w_sw: f64, tr: &mut Trace) {
@@ -359,12 +413,15 @@ fn record(p: &Prepared, d: &Demand, c: &Camber, (eci, ec, i, ic): (f64, f64, f64
             .note("upward positive; the multipliers of a member with a composite topping where it has one")
     });
 }
-
 fn record_live(p: &Prepared, d: &Demand, l: &LiveDeflection, tr: &mut Trace) {
     let len_u = p.sys.names().length;
     let show = crate::trace::show;
     let ic = p.composite.as_ref().map_or(p.precast.i, |c| c.i);
     let integral = "by virtual work, ∫ M m / (E I) dx with m the moment of a unit load at the point (Simpson's rule on pieces where M m is at most cubic: exact)";
+    if let (Some(v), Some(b)) = (l.live, &l.cracked) {
+        record_bilinear(p, d, l, v, b, tr);
+        return;
+    }
     if let Some(v) = l.live {
         tr.rec(|| {
             let st = Step::new("camber", "camber.live", "Immediate live-load deflection", sy("Delta_L", "ΔL"))
@@ -386,4 +443,66 @@ fn record_live(p: &Prepared, d: &Demand, l: &LiveDeflection, tr: &mut Trace) {
             ))
         });
     }
+}
+
+/// The live-load deflection of a class T or C member by the bilinear relation: Icr, the
+/// share of the live moment on the uncracked section, and the deflection.
+fn record_bilinear(p: &Prepared, d: &Demand, l: &LiveDeflection, v: f64, b: &Bilinear, tr: &mut Trace) {
+    use crate::trace::f::{add, div, mul, n, sub, v as var};
+    let u = p.sys.names();
+    let show = crate::trace::show;
+    let clause = p.basis.cite(crate::basis::Clause::CrackedDeflection);
+    tr.rec(|| {
+        Step::new("camber", "camber.icr", "Cracked transformed section at midspan", sy("I_(\"cr\")", "Icr"))
+            .result(b.icr, Unit::Inertia)
+            .clause(clause.clone())
+            .note(format!(
+                "bending alone: the concrete in compression only{}, the bonded strand and bars by Es / Ec; neutral axis {} {} below the top; in the precast concrete's Ec",
+                if p.m.topping.is_some() { " (the topping at its modular ratio)" } else { "" },
+                show(b.depth),
+                u.length
+            ))
+    });
+    tr.rec(|| {
+        Step::new("camber", "camber.share", "Share of the live moment on the uncracked section", sy("r_g", "rg"))
+            .formula(div(var(0), var(1)))
+            .input(sy("M_(\"cr,L\")", "Mcr,L"), b.m_cr, Unit::Moment)
+            .input(sy("M_L", "ML"), b.m_live, Unit::Moment)
+            .result(b.share, Unit::Ratio)
+            .clause(clause.clone())
+            .note(format!(
+                "at midspan: Mcr,L = (fr − fb) Sb, the live moment that brings the bottom fibre from {} {} under the prestress and the dead load to fr = {} {} (Sb = {} {}³); the rest of the live moment acts on the cracked section (the bilinear relation as the PCI Design Handbook applies it, from memory); at most 1",
+                show(b.dead_bottom),
+                u.stress,
+                show(b.fr),
+                u.stress,
+                show(b.sb),
+                u.length
+            ))
+    });
+    tr.rec(|| {
+        let against = match (l.limit, &l.limit_text) {
+            (Some(lim), Some(t)) => format!(
+                "; limit {t} = {} {} (the span {} {}): {}",
+                show(lim),
+                u.length,
+                show(d.span),
+                u.length,
+                if l.ok { "within it" } else { "EXCEEDED" }
+            ),
+            _ => "; no limit chosen in the input ([member.stresses] deflection_limit)".into(),
+        };
+        Step::new("camber", "camber.live", "Immediate live-load deflection, bilinear", sy("Delta_L", "ΔL"))
+            .formula(add(vec![mul(vec![var(0), var(3)]), mul(vec![var(0), div(var(1), var(2)), sub(n(1.0), var(3))])]))
+            .input(sy("Delta_g", "Δg"), b.gross, Unit::Length)
+            .input(sy("I_c", "Ic"), b.ic, Unit::Inertia)
+            .input(sy("I_(\"cr\")", "Icr"), b.icr, Unit::Inertia)
+            .input(sy("r_g", "rg"), b.share, Unit::Ratio)
+            .result(v, Unit::Length)
+            .clause(format!("{clause}, Table 24.2.2"))
+            .note(format!(
+                "downward, of {} on the span between the bearings; Δg on the uncracked section (Ec Ic, by virtual work), the part of the live moment past cracking on Icr{against}",
+                l.load
+            ))
+    });
 }

@@ -64,7 +64,7 @@ pub(super) fn transfer(
         debonded_length: s.debonded_length,
         transfer_length: ltr,
         development_length: f64::NAN,
-        doubled: s.debonded_length > 0.0,
+        doubled: s.debonded_length > 0.0 && p.service_tension.is_none_or(|(ft, _)| ft > 0.0),
         fse_here,
         fpx: None,
         ratio: None,
@@ -130,7 +130,8 @@ pub(super) fn development(
     let factor = if dev.doubled { 2.0 } else { 1.0 };
     let ld = factor * (fse_full / d1 * s.diameter + (fps_d - fse_full) / d2 * s.diameter);
     dev.development_length = ld;
-    tr.rec(|| development_length_step(p, li, k, s, fps_d, factor, ld));
+    let debonded = dev.debonded_length > 0.0;
+    tr.rec(|| development_length_step(p, li, k, s, fps_d, (factor, debonded), ld));
     if !at.active {
         return None;
     }
@@ -155,14 +156,15 @@ pub(super) fn development(
     Some(cap)
 }
 
-/// The development length's step; `factor` 2 where it is doubled (25.4.8.1(b)).
+/// The development length's step; `factor` 2 where it is doubled (25.4.8.1(b)), and
+/// whether the layer is debonded at the member end (why it is or is not doubled).
 fn development_length_step(
     p: &Prepared,
     li: usize,
     k: usize,
     s: &StrandLayer,
     fps_d: f64,
-    factor: f64,
+    (factor, debonded): (f64, bool),
     ld: f64,
 ) -> Step {
     let (d1, d2) = p.basis.development_divisors();
@@ -170,18 +172,38 @@ fn development_length_step(
     // (fps - fse) / 1 in ksi: no division shown
     let rise = if d2 == 1.0 { sub(v(1), v(0)) } else { div(sub(v(1), v(0)), n(d2)) };
     let core = add(vec![mul(vec![div(v(0), n(d1)), v(2)]), mul(vec![rise, v(2)])]);
+    let names = p.sys.names();
+    let tension = |(ft, x): (f64, f64)| {
+        format!(
+            "largest bottom stress under all service loads between the bearings {} {} at x = {} {}",
+            show(ft),
+            names.stress,
+            show(x),
+            names.length
+        )
+    };
+    let solved = "fps as solved at this location with the strand fully developed";
     let (formula, note) = if fps_d == 0.0 {
-        (core, "untensioned strand in compression here: its development does not limit it")
+        (core, "untensioned strand in compression here: its development does not limit it".to_string())
     } else if factor == 2.0 {
+        let why = match p.service_tension {
+            Some(t) => format!("the design has tension in the precompressed tensile zone under service loads ({})", tension(t)),
+            None => "the service stresses are not computed for this member (its moments are given), so tension in the precompressed tensile zone is assumed, the conservative reading".into(),
+        };
         (
             mul(vec![n(2.0), core]),
-            "doubled for strand whose bonding does not reach the member end (25.4.8.1(b)), the conservative default; required where service tension is allowed in the precompressed zone; fps as solved at this location with the strand fully developed",
+            format!("doubled for strand whose bonding does not reach the member end (25.4.8.1(b)): {why}; {solved}"),
         )
-    } else {
+    } else if let (true, Some(t)) = (debonded, p.service_tension) {
         (
             core,
-            "fps as solved at this location with the strand fully developed, so ℓd differs a little between locations",
+            format!(
+                "not doubled although the strand is debonded at the member end: no tension in the precompressed tensile zone under service loads ({}), so 25.4.8.1(b) does not apply; {solved}",
+                tension(t)
+            ),
         )
+    } else {
+        (core, format!("{solved}, so ℓd differs a little between locations"))
     };
     layer_step("development", li, "dev.ld", k, "Development length", sym_k("ell", "d", "ld", k))
         .formula(formula)
@@ -189,7 +211,11 @@ fn development_length_step(
         .input(sym_k("f", "\"ps\"", "fps", k), fps_d, Unit::Stress)
         .input(s_db(), s.diameter, Unit::Length)
         .result(ld, Unit::Length)
-        .clause(p.basis.cite(if factor == 2.0 { Clause::DevelopmentDoubled } else { Clause::DevelopmentLength }))
+        .clause(p.basis.cite(if factor == 2.0 || debonded {
+            Clause::DevelopmentDoubled
+        } else {
+            Clause::DevelopmentLength
+        }))
         .note(note)
 }
 

@@ -19,6 +19,7 @@
 pub mod camber;
 pub mod checks;
 pub mod conclusion;
+pub mod cracked;
 pub mod curve;
 pub mod demand;
 mod location;
@@ -139,6 +140,30 @@ fn sym_k(base: &'static str, sub: &'static str, plain: &'static str, k: usize) -
 /// each station along the span (a table row) and each section derived in full (the
 /// named locations, the governing station and the critical station of each end region).
 pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Result<MemberResult> {
+    let (first, decided) = member_with(m, basis, trace, None)?;
+    // the scan that decided the development of debonded strand found no service tension
+    // at the bottom, but the stations (or the scan between them) do: the design has
+    // tension in the precompressed tensile zone after all, and the member is analysed
+    // again with that tension
+    let found = first.stresses.as_ref().map(|s| (s.ft, s.ft_x));
+    match (decided, found) {
+        (Some((scan, _)), Some((ft, x)))
+            if scan <= 0.0 && ft > 0.0 && m.strands.iter().any(|s| s.debonded_length > 0.0) =>
+        {
+            Ok(member_with(m, basis, trace, Some((ft, x)))?.0)
+        }
+        _ => Ok(first),
+    }
+}
+
+/// One member, with the service tension that decides the development of debonded strand
+/// given (`tension`) or found by a scan; the result and that tension.
+fn member_with(
+    m: &Member,
+    basis: &'static dyn Basis,
+    trace: bool,
+    tension: Option<(f64, f64)>,
+) -> Result<(MemberResult, Option<(f64, f64)>)> {
     // computed losses first: they fill in the fse of their layers, which everything
     // after them reads (the member with those filled in is the one analysed)
     let mut lt = Trace::new(trace);
@@ -149,8 +174,10 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
     };
     let sys = basis.units();
     let mut tr = Trace::new(trace);
-    let p = prepare(m, basis, &mut tr)?;
+    let mut p = prepare(m, basis, &mut tr)?;
     let demand = demand::of_member(&p, m, &mut tr);
+    p.service_tension = demand.as_ref().map(|d| tension.unwrap_or_else(|| stresses::service_tension(&p, d)));
+    let p = p;
     tr.steps.append(&mut lt.steps);
     prestress::record_member(&p, &mut tr);
     let mut sites = Vec::with_capacity(m.locations.len() + 3);
@@ -188,7 +215,17 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
     }
     let mut stations = stations;
     let named = m.locations.len();
-    let stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut locations[..named], &mut tr));
+    let mut stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut locations[..named], &mut tr));
+    if let (Some(d), Some(s)) = (&demand, &mut stresses)
+        && s.class == stresses::Class::C
+    {
+        let c = cracked::crack_control(&p, d, s.ft_x, &mut tr);
+        s.pass &= c.as_ref().is_ok_and(|c| c.ok) || c.is_err();
+        s.crack_control = Some(match c {
+            Ok(c) => cracked::CrackCheck::Made(c),
+            Err(why_not) => cracked::CrackCheck::NotMade { why_not },
+        });
+    }
     let conditions = stresses.as_ref().map_or_else(Vec::new, |s| stress_conditions(s, sys));
     let camber = match (&demand, &stresses) {
         (Some(d), Some(s)) if s.release.checked => camber::of_member(&p, d, &mut tr),
@@ -246,27 +283,31 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
     };
     let mut steps = tr.steps;
     name_conversions(sys, &mut steps);
-    Ok(MemberResult {
-        id: m.id.clone(),
-        section,
-        locations,
-        governing,
-        pass,
-        status,
-        trace: steps,
-        curve: None,
-        curve_error: None,
-        demand,
-        stations,
-        sites,
-        prestress: prestress_of(m, losses.as_ref()),
-        losses,
-        member: computed.map(|(effective, _)| Box::new(effective)),
-        stresses,
-        conditions,
-        camber,
-        deflection,
-    })
+    let decided = p.service_tension;
+    Ok((
+        MemberResult {
+            id: m.id.clone(),
+            section,
+            locations,
+            governing,
+            pass,
+            status,
+            trace: steps,
+            curve: None,
+            curve_error: None,
+            demand,
+            stations,
+            sites,
+            prestress: prestress_of(m, losses.as_ref()),
+            losses,
+            member: computed.map(|(effective, _)| Box::new(effective)),
+            stresses,
+            conditions,
+            camber,
+            deflection,
+        },
+        decided,
+    ))
 }
 
 /// The stresses at every station (each row gets its stages), the derivation at the
@@ -322,20 +363,34 @@ fn stresses_along(
 fn stress_conditions(s: &stresses::MemberStresses, sys: System) -> Vec<conclusion::Condition> {
     use conclusion::{Condition, ConditionKind};
     let mut out = Vec::new();
-    if s.class == stresses::Class::C {
-        out.push(Condition {
-            kind: ConditionKind::ClassC,
-            short: format!("class C: ft = {} {}", crate::trace::show(s.ft), sys.names().stress),
-            text: format!(
-                "The largest service tension at the bottom, {} {} at x = {} {}, exceeds the class T bound {} {}: the member is class C. Its stresses on the cracked transformed section and the crack control of the code are not checked by this version.",
-                crate::trace::show(s.ft),
-                sys.names().stress,
-                crate::trace::show(s.ft_x),
-                sys.names().length,
-                crate::trace::show(s.ft_t),
-                sys.names().stress
-            ),
-        });
+    let names = sys.names();
+    let class_c = |what: String| Condition {
+        kind: ConditionKind::ClassC,
+        short: format!("class C: ft = {} {}", crate::trace::show(s.ft), names.stress),
+        text: format!(
+            "The largest service tension at the bottom, {} {} at x = {} {}, exceeds the class T bound {} {}: the member is class C. {what}",
+            crate::trace::show(s.ft),
+            names.stress,
+            crate::trace::show(s.ft_x),
+            names.length,
+            crate::trace::show(s.ft_t),
+            names.stress
+        ),
+    };
+    match &s.crack_control {
+        Some(cracked::CrackCheck::NotMade { why_not }) => {
+            out.push(class_c(format!("Its crack control on the cracked transformed section is not made: {why_not}.")))
+        }
+        Some(cracked::CrackCheck::Made(c)) => {
+            if let Some(open) = &c.open {
+                out.push(class_c(format!(
+                    "On the cracked section Δfps = {} {}; left to the engineer: {open}.",
+                    crate::trace::show(c.dfps),
+                    names.stress
+                )));
+            }
+        }
+        None => {}
     }
     if let Some(why) = &s.release.why_not {
         out.push(Condition {
@@ -546,11 +601,15 @@ fn with_losses(m: &Member, basis: &'static dyn Basis, tr: &mut Trace) -> Result<
 
 /// phi Mn at each x along a member (from its left end), untraced: the strength solution
 /// of the station table without its demand, minimum-strength check or the settling of
-/// strand rupture. For benchmarks and callers who want the capacity alone.
+/// strand rupture (but the development of debonded strand decided as there, by the
+/// member's service tension). For benchmarks and callers who want the capacity alone.
 pub fn phi_mn_along(m: &Member, basis: &'static dyn Basis, xs: &[f64]) -> Result<Vec<f64>> {
     let computed = with_losses(m, basis, &mut Trace::new(false))?;
     let m = computed.as_ref().map_or(m, |(effective, _)| effective);
-    let p = prepare(m, basis, &mut Trace::new(false))?;
+    let mut p = prepare(m, basis, &mut Trace::new(false))?;
+    // the development of debonded strand as the station table has it
+    p.service_tension = demand::of_member(&p, m, &mut Trace::new(false)).map(|d| stresses::service_tension(&p, &d));
+    let p = p;
     xs.iter()
         .map(|&x| {
             let name = format!("x = {}", crate::trace::show(x));

@@ -30,6 +30,12 @@ pub(super) struct Prepared<'a> {
     /// f'c of the concrete at the compression face.
     pub fc_top: f64,
     pub curves: Vec<StrandCurve>,
+    /// Whether the design has tension in the precompressed tensile zone under service
+    /// loads, which doubles the development length of debonded strand (25.4.8.1(b)):
+    /// the largest bottom stress between the bearings and its x, where the member's
+    /// stresses are computed; `None` (doubled, the conservative reading) where they are
+    /// not.
+    pub service_tension: Option<(f64, f64)>,
 }
 
 pub(super) fn prepare<'a>(m: &'a Member, basis: &'static dyn Basis, tr: &mut Trace) -> Result<Prepared<'a>> {
@@ -171,6 +177,7 @@ pub(super) fn prepare<'a>(m: &'a Member, basis: &'static dyn Basis, tr: &mut Tra
         beta1: b1.value,
         fc_top,
         curves,
+        service_tension: None,
     })
 }
 

@@ -156,6 +156,8 @@ pub struct MemberStresses {
     /// Points between the stations where a fine scan found a stage (or the class's bottom
     /// tension) beyond what the stations and named locations show: checked as they are.
     pub between: Vec<Between>,
+    /// A class C member's crack control on the cracked section, or why it is not made.
+    pub crack_control: Option<super::cracked::CrackCheck>,
 }
 
 /// A point between the stations, with why it is checked and its stages.
@@ -241,6 +243,39 @@ pub(super) fn between(p: &Prepared, d: &Demand, xs: &[f64]) -> Vec<(f64, String)
         add(g.1, "between stations: largest bottom tension".into());
     }
     out
+}
+
+/// The largest bottom stress under all service loads between the bearings and its x,
+/// on a scan of 400 equal parts of the member with both bearings: whether the design
+/// has tension in the precompressed tensile zone, which decides the development length
+/// of debonded strand (25.4.8.1(b)) before the stations (placed by that length) are
+/// known. The member's class is settled later on the stations and the scan together.
+pub(super) fn service_tension(p: &Prepared, d: &Demand) -> (f64, f64) {
+    const PARTS: usize = 400;
+    let cx = context(p, d);
+    let len = d.length;
+    let xs = (0..=PARTS).map(|k| len * k as f64 / PARTS as f64).chain([d.bearing, len - d.bearing]);
+    let inside = xs.filter(|x| *x >= d.bearing && *x <= len - d.bearing);
+    inside
+        .filter_map(|x| at(&cx, x).into_iter().find(|s| s.stage == "service").map(|s| (s.bottom.stress, x)))
+        .fold((f64::NEG_INFINITY, 0.0), |a, b| if b.0 > a.0 { b } else { a })
+}
+
+/// The moment at x under the service combination with the largest moment there.
+pub(super) fn service_moment(p: &Prepared, d: &Demand, x: f64) -> f64 {
+    let cx = context(p, d);
+    at(&cx, x).into_iter().find(|s| s.stage == "service").map_or(0.0, |s| (s.m_precast + s.m_composite) / p.cv.km)
+}
+
+/// At x: the bottom stress under the effective prestress and the dead load alone, and
+/// the bottom section modulus of the section the loads beyond it act on (the composite
+/// one where there is a topping).
+pub(super) fn dead_bottom(p: &Prepared, d: &Demand, x: f64) -> (f64, f64) {
+    let cx = context(p, d);
+    let (force, e) = force_at(p, x, &|i| p.m.strands[i].fse);
+    let (by_kind, mnc) = moments_at(&cx, x);
+    let (_, bottom, _) = fibres(&cx, force, e, mnc, by_kind[0] - mnc);
+    (bottom, cx.ic / (cx.ycc - cx.bot))
 }
 
 /// What the stages read of the member, once: the section's properties and the limits.
@@ -354,6 +389,7 @@ pub(super) fn of_member(
         worst_service,
         pass,
         between: Vec::new(),
+        crack_control: None,
     };
     (out, rows)
 }

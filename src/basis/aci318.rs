@@ -74,6 +74,10 @@ impl Basis for Aci318 {
             Clause::ServiceCompression => "24.5.4.1, Table 24.5.4.1",
             Clause::MemberClass => "24.5.2.1, Table 24.5.2.1",
             Clause::ServiceCombinations => "24.5.1 (service loads); combinations of ASCE/SEI 7-16 2.4.1",
+            Clause::ClassCStresses => "24.5.2.3",
+            Clause::CrackControl => "24.3.2, Table 24.3.2",
+            Clause::CrackedDeflection => "24.2.3.9",
+            Clause::SkinReinforcement => "9.7.2.3",
         }
     }
 
@@ -343,6 +347,42 @@ impl Basis for Aci318 {
         let root = self.root_unit(fc).sqrt();
         let back = self.root_unit(1.0);
         (u * root / back, t * root / back)
+    }
+
+    /// 24.3.2 (from memory): for class C, Δfps at most 36 ksi (250 MPa); at or below
+    /// 20 ksi (140 MPa) the spacing of Table 24.3.2 need not be met.
+    fn crack_control(&self) -> (f64, f64) {
+        match self.sys {
+            System::Us => (36.0, 20.0),
+            System::Si => (250.0, 140.0),
+        }
+    }
+
+    /// Table 24.3.2, bonded prestressed reinforcement (from memory): the lesser of
+    /// (2/3)[15 (40,000 / Δfps) - 2.5 cc] and (2/3)[12 (40,000 / Δfps)], psi and in;
+    /// 318M-19: (2/3)[380 (280 / Δfps) - 2.5 cc] and (2/3)[300 (280 / Δfps)], MPa and mm.
+    fn crack_spacing(&self, dfps: f64, cc: f64) -> f64 {
+        let (a, b, k) = match self.sys {
+            System::Us => (15.0, 12.0, 40.0),
+            System::Si => (380.0, 300.0, 280.0),
+        };
+        2.0 / 3.0 * (a * k / dfps - 2.5 * cc).min(b * k / dfps)
+    }
+
+    /// 9.7.2.3 (from memory): skin reinforcement for nonprestressed and class C beams
+    /// deeper than 36 in (900 mm).
+    fn skin_depth(&self) -> f64 {
+        match self.sys {
+            System::Us => 36.0,
+            System::Si => 900.0,
+        }
+    }
+
+    fn crack_spacing_text(&self) -> &'static str {
+        match self.sys {
+            System::Us => "s ≤ (2/3) min(15 (40 000 / Δfps) − 2.5 cc, 12 (40 000 / Δfps)), psi and in",
+            System::Si => "s ≤ (2/3) min(380 (280 / Δfps) − 2.5 cc, 300 (280 / Δfps)), MPa and mm",
+        }
     }
 
     fn class_limits_text(&self) -> &'static str {

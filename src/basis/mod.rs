@@ -89,6 +89,15 @@ pub enum Clause {
     MemberClass,
     /// The service (unfactored) load combinations for the stresses.
     ServiceCombinations,
+    /// The stresses of a class C member on the cracked transformed section.
+    ClassCStresses,
+    /// Crack control: the spacing of the reinforcement closest to the tension face, and
+    /// the strand stress change of a class C member.
+    CrackControl,
+    /// The deflection of a class T or C member from the cracked transformed section.
+    CrackedDeflection,
+    /// The skin reinforcement of deep class C beams.
+    SkinReinforcement,
 }
 
 /// The stress limits at release, as sizes (compression and tension both positive): away
@@ -221,6 +230,16 @@ pub trait Basis: Send + Sync {
     /// The unfactored combinations of gravity loads for the service stresses, for the
     /// loads present (in [`crate::input::model::LoadKind::ALL`]'s order).
     fn service_combinations(&self, present: [bool; 4]) -> Vec<Combination>;
+    /// Crack control of a class C member: the largest strand stress change beyond
+    /// decompression Δfps, and the Δfps up to which the spacing is not limited.
+    fn crack_control(&self) -> (f64, f64);
+    /// The largest spacing of bonded prestressed reinforcement closest to the tension
+    /// face, for a Δfps and the clear cover cc of that reinforcement.
+    fn crack_spacing(&self, dfps: f64, cc: f64) -> f64;
+    /// The words of that spacing rule.
+    fn crack_spacing_text(&self) -> &'static str;
+    /// The depth beyond which a class C beam needs skin reinforcement.
+    fn skin_depth(&self) -> f64;
 }
 
 /// The bases this version knows, as the input selects them.

@@ -453,6 +453,9 @@ pub struct StressOptions {
     pub reinforcement_fy: f64,
     /// The live-load deflection limit as the divisor of the span (360 for "L/360").
     pub deflection_limit: Option<f64>,
+    /// Centre-to-centre spacing of the bonded reinforcement closest to the tension face,
+    /// for the crack control of a class C member (24.3.2); `None`: not given.
+    pub tension_face_spacing: Option<f64>,
 }
 
 impl Member {

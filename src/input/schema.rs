@@ -119,6 +119,7 @@ pub struct Stresses {
     pub release_reinforcement: Option<bool>,
     pub reinforcement_fy: Option<Q>,
     pub deflection_limit: Option<String>,
+    pub tension_face_spacing: Option<Q>,
 }
 
 /// Service loads on a member: area loads ("20 psf", "1.0 kPa") times the tributary

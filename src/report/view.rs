@@ -517,6 +517,7 @@ mu = 300.0
         "members[].has_stresses",
         "members[].stresses.class",
         "members[].stresses.class_text",
+        "members[].stresses.crack_text",
         "members[].stresses.release_checked",
         "members[].stresses.release_why_not",
         "members[].stresses.release_limits",

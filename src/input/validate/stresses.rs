@@ -1,6 +1,7 @@
 //! The options of the stress checks at release and in service (`[member.stresses]`):
-//! the sustained share of the live load and the bonded reinforcement of the tension zone
-//! at release.
+//! the sustained share of the live load, the bonded reinforcement of the tension zone
+//! at release, the live-load deflection limit and the spacing of the reinforcement
+//! closest to the tension face (crack control of a class C member).
 
 use super::*;
 
@@ -17,6 +18,7 @@ pub(super) fn options(cx: &mut Ctx, m: &raw::Member, has_loads: bool) -> Option<
             release_reinforcement: false,
             reinforcement_fy: fy_default,
             deflection_limit: None,
+            tension_face_spacing: None,
         });
     };
     if !has_loads {
@@ -44,12 +46,23 @@ pub(super) fn options(cx: &mut Ctx, m: &raw::Member, has_loads: bool) -> Option<
         Some(text) => Some(deflection_limit(cx, text)?),
         None => None,
     };
+    let spacing = match &t.tension_face_spacing {
+        Some(_) => {
+            let hi = match cx.sys {
+                System::Us => 48.0,
+                System::Si => 1200.0,
+            };
+            Some(cx.ranged("tension_face_spacing", &t.tension_face_spacing, Dim::Length, 0.0, hi, true)?)
+        }
+        None => None,
+    };
     cx.leave();
     Some(StressOptions {
         sustained_live: sustained?,
         release_reinforcement: t.release_reinforcement.unwrap_or(false),
         reinforcement_fy: fy?,
         deflection_limit: limit,
+        tension_face_spacing: spacing,
     })
 }
 

@@ -39,6 +39,8 @@ pub struct StressesShown {
     /// The live-load deflection in words, and whether it is within its limit.
     pub live: Option<String>,
     pub live_ok: bool,
+    /// A class C member's crack control in words (None: not class C).
+    pub crack_text: Option<String>,
 }
 
 /// The camber table: each elastic component with its multipliers, and the results.
@@ -226,6 +228,7 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
         camber: m.camber.as_ref().map(camber),
         live: m.deflection.as_ref().map(|d| live_text(d, s, &u)),
         live_ok: m.deflection.as_ref().is_none_or(|d| d.ok),
+        crack_text: s.crack_control.as_ref().map(|c| crack_text(c, &u)),
         camber_why_not: m.camber.is_none().then(|| {
             "the camber rests on the release stage (Eci and the stress just after release), which is not checked for this member".to_string()
         }),
@@ -267,26 +270,64 @@ fn camber(c: &crate::analysis::camber::Camber) -> CamberShown {
     }
 }
 
+/// A class C member's crack control in words.
+fn crack_text(c: &crate::analysis::cracked::CrackCheck, u: &crate::units::UnitNames) -> String {
+    use crate::analysis::cracked::CrackCheck;
+    let c = match c {
+        CrackCheck::NotMade { why_not } => return format!("not made: {why_not}."),
+        CrackCheck::Made(c) => c,
+    };
+    let within = |ok: bool| if ok { "within" } else { "BEYOND" };
+    let spacing = match (c.spacing_max, c.spacing) {
+        (None, _) => format!("at or below {} {} the spacing is not limited", printed(c.dfps_free), u.stress),
+        (Some(s), Some(given)) => format!(
+            "largest spacing of the reinforcement at the tension face {} {}: the input's {} {} is {} it",
+            printed(s),
+            u.length,
+            printed(given),
+            u.length,
+            within(given <= s * (1.0 + 1e-9))
+        ),
+        (Some(s), None) => {
+            format!("largest spacing of the reinforcement at the tension face {} {}", printed(s), u.length)
+        }
+    };
+    let open = c.open.as_ref().map_or(String::new(), |o| format!(" Left to the engineer: {o}."));
+    format!(
+        "at x = {} {}, Δfps = {} {} in layer {}, {} the limit {} {}; {spacing}.{open}",
+        printed(c.x),
+        u.length,
+        printed(c.dfps),
+        u.stress,
+        c.layer,
+        within(c.dfps <= c.dfps_max * (1.0 + 1e-9)),
+        printed(c.dfps_max),
+        u.stress
+    )
+}
+
 /// The live-load deflection against its limit, in words.
 fn live_text(d: &crate::analysis::camber::LiveDeflection, s: &MemberStresses, u: &crate::units::UnitNames) -> String {
     match (d.live, &d.limit_text, d.limit) {
         (None, _, _) => format!("not computed: {}", d.why_not.clone().unwrap_or_default()),
         (Some(v), Some(t), Some(l)) => format!(
-            "{} {} of {} (class {}), {} the limit {t} = {} {}",
+            "{} {} of {} (class {}{}), {} the limit {t} = {} {}",
             printed(v),
             u.length,
             d.load,
             s.class.letter(),
+            if d.cracked.is_some() { ", bilinear on the cracked section" } else { "" },
             if d.ok { "within" } else { "BEYOND" },
             printed(l),
             u.length
         ),
         (Some(v), _, _) => format!(
-            "{} {} of {} (class {}); no limit chosen in the input",
+            "{} {} of {} (class {}{}); no limit chosen in the input",
             printed(v),
             u.length,
             d.load,
-            s.class.letter()
+            s.class.letter(),
+            if d.cracked.is_some() { ", bilinear on the cracked section" } else { "" }
         ),
     }
 }
