@@ -47,31 +47,11 @@ fn close(what: &str, got: f64, want: f64, rel: f64) {
     assert!((got - want).abs() <= rel * want.abs().max(1e-6), "{what}: program {got}, reference {want}");
 }
 
-/// A 12 x 24 in rectangle, 40 ft long, f'c 6 ksi, 8 half-inch strands at `strand_y`
-/// (fse 150 ksi), bars as given, a live load in klf, extra TOML lines at the end.
+/// The common test rectangle (tests/common) with 8 half-inch strands at `strand_y`
+/// (fse 150 ksi), a live load in klf, extra TOML lines at the end.
 fn rect(id: &str, live: f64, strand_y: f64, extra: &str) -> String {
-    format!(
-        r##"
-[[member]]
-id = "{id}"
-length = 480.0
-[member.loads]
-superimposed_dead = "0.2 klf"
-live = "{live} klf"
-[member.concrete]
-fc = 6.0
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
-height = {strand_y}
-count = 8
-diameter = 0.5
-fse = 150.0
-{extra}
-"##
-    )
+    let strands = format!("[[member.strands]]\nheight = {strand_y}\ncount = 8\ndiameter = 0.5\nfse = 150.0\n{extra}");
+    rectangle_member(id, &live.to_string(), "", &strands)
 }
 
 const BARS: &str = "[[member.bars]]\nheight = 2.5\ncount = 2\nsize = \"#8\"\n";

@@ -670,22 +670,11 @@ fn sd1_release_tension_with_and_without_reinforcement() {
 // strength; superimposed dead 0.2 klf; live 0.3, 0.5 and 0.7 klf.
 // ---------------------------------------------------------------------------------------
 fn se(id: &str, live: &str) -> String {
-    format!(
-        r##"
-[[member]]
-id = "{id}"
-length = 480.0
-[member.loads]
-superimposed_dead = "0.2 klf"
-live = "{live} klf"
-[member.concrete]
-fc = 6.0
-fci = 4.5
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
+    rectangle_member(
+        id,
+        live,
+        "fci = 4.5",
+        r##"[[member.strands]]
 height = 7.0
 count = 8
 diameter = 0.5
@@ -694,8 +683,7 @@ fpi = 175.0
 [[member.bars]]
 height = 2.5
 count = 2
-size = "#8"
-"##
+size = "#8""##,
     )
 }
 
@@ -1022,21 +1010,11 @@ fn a_named_location_has_its_stresses() {
 // ---------------------------------------------------------------------------------------
 
 fn sh(id: &str, live: &str) -> String {
-    format!(
-        r##"
-[[member]]
-id = "{id}"
-length = 480.0
-[member.loads]
-superimposed_dead = "0.2 klf"
-live = "{live} klf"
-[member.concrete]
-fc = 6.0
-[member.section]
-shape = "rectangle"
-width = 12.0
-height = 24.0
-[[member.strands]]
+    rectangle_member(
+        id,
+        live,
+        "",
+        r#"[[member.strands]]
 height = 3.0
 count = 4
 diameter = 0.5
@@ -1049,8 +1027,7 @@ fse = 150.0
 debonded_length = 48.0
 [[member.location]]
 name = "in the debonded layer's development"
-x = 72.0
-"##
+x = 72.0"#,
     )
 }
 
@@ -1094,4 +1071,40 @@ fn debonded_strand_development_doubled_only_with_service_tension() {
             }
         }
     }
+}
+
+/// Tension that the scan deciding the development misses: a point load between two of
+/// its points (400 equal parts: every 1.2 in) raises the bottom stress to a small
+/// tension at the load alone, where a station stands. The member is analysed again with
+/// the debonded layer's development doubled.
+#[test]
+fn tension_only_at_a_station_doubles_the_development() {
+    // [statics] at x = 240.6 of a 480 in span: M = w x (L - x) / 2 + Q x (L - x) / L;
+    // [spec] bottom = -P/A - P e / Sb + M / Sb with P = 137.7 kip, e = 9 in (as above)
+    let (a, sb, pe, q, xq) = (288.0, 1152.0, 150.0 * 6.0 * 0.153, 4.0, 240.6);
+    let target = 0.0005; // ksi of tension at the load
+    let need = (target + pe / a + pe * 9.0 / sb) * sb; // kip-in
+    let w = (need - q * xq * (480.0 - xq) / 480.0) / (xq * (480.0 - xq) / 2.0) * 12.0; // klf
+    let live = w - 0.3 - 0.2; // [wc] self-weight 0.3 klf, superimposed dead 0.2 klf
+    let bottom = |x: f64| {
+        let m = w / 12.0 * x * (480.0 - x) / 2.0
+            + if x <= xq { q * x * (480.0 - xq) / 480.0 } else { q * xq * (480.0 - x) / 480.0 };
+        -pe / a - pe * 9.0 / sb + m / sb
+    };
+    // the scan's neighbouring points see compression: the scan decides "no tension"
+    assert!(bottom(240.0) < 0.0 && bottom(241.2) < 0.0, "{} {}", bottom(240.0), bottom(241.2));
+    let body =
+        sh("SH-3", &format!("{live:.12}")) + &format!("[[member.point_load]]\nkind = \"dead\"\nload = {q}\nx = {xq}\n");
+    let pkg = parse(&format!("{HEAD_US}{body}"));
+    let an = analysis::analyze(&pkg, true).expect("analysis");
+    let doc = serde_json::to_value(present::check_document(&pkg, &an)).unwrap();
+    let s = &doc["members"][0]["stresses"];
+    same("SH-3: ft", num(&s["ft"], "ft"), target);
+    same("SH-3: x of ft", num(&s["ft_x"], "ft_x"), xq);
+    let step =
+        (an.members[0].locations[0].trace.iter()).find(|st| st.id == "L1.dev.ld.2").expect("the development step");
+    let input = |name: &str| step.inputs.iter().find(|i| i.symbol.plain == name).expect(name).value;
+    let single = input("fse,2") / 3.0 * input("db") + (input("fps,2") - input("fse,2")) * input("db"); // [ACI] 25.4.8.1(a)
+    same("SH-3: ld of the debonded layer, doubled", step.value, 2.0 * single); // [ACI] 25.4.8.1(b)
+    assert!(step.note.as_deref().unwrap_or_default().contains("doubled for strand"), "{:?}", step.note);
 }

@@ -291,7 +291,7 @@ fn live(p: &Prepared, d: &Demand, class: Class) -> LiveDeflection {
                 out.live = None;
                 out.why_not = Some(format!(
                     "class {}: the deflection needs the cracked section (ACI 318-19 24.2.3.9), and {why}",
-                    if class == Class::T { "T" } else { "C" }
+                    class.letter()
                 ));
             }
         }
@@ -413,6 +413,7 @@ fn record(p: &Prepared, d: &Demand, c: &Camber, (eci, ec, i, ic): (f64, f64, f64
             .note("upward positive; the multipliers of a member with a composite topping where it has one")
     });
 }
+
 fn record_live(p: &Prepared, d: &Demand, l: &LiveDeflection, tr: &mut Trace) {
     let len_u = p.sys.names().length;
     let show = crate::trace::show;

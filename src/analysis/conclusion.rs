@@ -81,10 +81,10 @@ impl ConditionKind {
                 "the precast unit cracks under the non-composite moment before the topping acts: the cracking moment and the minimum strength need another method"
             }
             ConditionKind::ClassC => {
-                "the member is class C in service: its cracked-section stresses and crack control are not checked by this version"
+                "the member is class C in service: part of its crack control on the cracked section is left to the engineer (see the member's stress sheet)"
             }
             ConditionKind::DeflectionNotComputed => {
-                "the live-load deflection of a class T or C member is not computed by this version: check it on the cracked section"
+                "the live-load deflection of a class T or C member could not be found on the cracked section here: check it by other means"
             }
             ConditionKind::ReleaseNotChecked => {
                 "the stresses at release are not checked: give f'ci and the stress just after release of each tensioned layer"

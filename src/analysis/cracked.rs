@@ -6,7 +6,8 @@
 //!   Δfps beyond decompression under the service moment, by the decompression method:
 //!   the decompression force (the effective prestress force, fdc taken as fse) acts as a
 //!   compression at the strand's centroid together with the service moment on the
-//!   cracked section, all of it on the composite section;
+//!   cracked section, all of it on the composite section (steel in the compression zone
+//!   counts n A: the concrete it displaces is not deducted);
 //! - the live-load deflection of a class T or C member (24.2.3.9): the second moment
 //!   Icr of the section under bending alone, for the bilinear moment-deflection
 //!   relation.
@@ -185,24 +186,40 @@ pub struct CrackControl {
     pub open: Option<String>,
 }
 
+impl CrackCheck {
+    /// Whether the check is made and not met (a check not made is an open condition).
+    pub fn fails(&self) -> bool {
+        matches!(self, CrackCheck::Made(c) if !c.ok)
+    }
+}
+
 /// The crack control of a class C member at x (the largest service tension), recorded in
-/// `tr`; `Err` with why where the cracked section has no equilibrium.
-pub(super) fn crack_control(p: &Prepared, d: &Demand, x: f64, tr: &mut Trace) -> Result<CrackControl, String> {
+/// `tr`, or why it is not made.
+pub(super) fn crack_check(p: &Prepared, d: &Demand, x: f64, tr: &mut Trace) -> CrackCheck {
+    match crack_control(p, d, x, tr) {
+        Ok(c) => CrackCheck::Made(c),
+        Err(why_not) => CrackCheck::NotMade { why_not },
+    }
+}
+
+fn crack_control(p: &Prepared, d: &Demand, x: f64, tr: &mut Trace) -> Result<CrackControl, String> {
     let m = p.m;
     let t = Transformed::at(p, x);
     let moment = stresses::service_moment(p, d, x);
     let (force, e) = stresses::force_at(p, x, &|i| m.strands[i].fse);
     let yp = p.precast.yc - e;
-    let lowest = (t.steel().iter().filter(|s| s.tensioned)).min_by(|a, b| a.y.total_cmp(&b.y)).copied();
-    let Some(s) = lowest else {
+    // the tensioned strand layer closest to the tension face
+    let lowest = (t.steel().iter().filter(|s| s.tensioned))
+        .filter_map(|s| s.layer.map(|k| (k, *s)))
+        .min_by(|a, b| a.1.y.total_cmp(&b.1.y));
+    let Some((layer, s)) = lowest else {
         return Err("no tensioned strand is bonded there".into());
     };
     let (y, ek) = t
         .decompression(force, yp, moment)
         .ok_or("the cracked section under the decompression force and the service moment has no equilibrium")?;
     let dfps = s.n * ek * (y - s.y);
-    let layer = s.layer.unwrap_or(0);
-    let db = m.strands.get(layer.wrapping_sub(1)).map_or(0.0, |l| l.diameter);
+    let db = m.strands[layer - 1].diameter;
     let cover = s.y - m.region.y_bot() - db / 2.0;
     let top_ratio = if m.topping.is_some() { p.n.unwrap_or(1.0) } else { 1.0 };
     let top = -ek * (p.top - y) * top_ratio;

@@ -156,6 +156,21 @@ pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Res
     }
 }
 
+/// The member prepared and its demand (members with loads), with the service tension
+/// that decides the development of debonded strand: `tension` where given, else found
+/// by a scan of the service stresses (`None` without loads: doubled).
+fn prepare_with_demand<'a>(
+    m: &'a Member,
+    basis: &'static dyn Basis,
+    tr: &mut Trace,
+    tension: Option<(f64, f64)>,
+) -> Result<(prepare::Prepared<'a>, Option<demand::Demand>)> {
+    let mut p = prepare(m, basis, tr)?;
+    let demand = demand::of_member(&p, m, tr);
+    p.service_tension = demand.as_ref().map(|d| tension.unwrap_or_else(|| stresses::service_tension(&p, d)));
+    Ok((p, demand))
+}
+
 /// One member, with the service tension that decides the development of debonded strand
 /// given (`tension`) or found by a scan; the result and that tension.
 fn member_with(
@@ -174,10 +189,7 @@ fn member_with(
     };
     let sys = basis.units();
     let mut tr = Trace::new(trace);
-    let mut p = prepare(m, basis, &mut tr)?;
-    let demand = demand::of_member(&p, m, &mut tr);
-    p.service_tension = demand.as_ref().map(|d| tension.unwrap_or_else(|| stresses::service_tension(&p, d)));
-    let p = p;
+    let (p, demand) = prepare_with_demand(m, basis, &mut tr, tension)?;
     tr.steps.append(&mut lt.steps);
     prestress::record_member(&p, &mut tr);
     let mut sites = Vec::with_capacity(m.locations.len() + 3);
@@ -215,17 +227,7 @@ fn member_with(
     }
     let mut stations = stations;
     let named = m.locations.len();
-    let mut stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut locations[..named], &mut tr));
-    if let (Some(d), Some(s)) = (&demand, &mut stresses)
-        && s.class == stresses::Class::C
-    {
-        let c = cracked::crack_control(&p, d, s.ft_x, &mut tr);
-        s.pass &= c.as_ref().is_ok_and(|c| c.ok) || c.is_err();
-        s.crack_control = Some(match c {
-            Ok(c) => cracked::CrackCheck::Made(c),
-            Err(why_not) => cracked::CrackCheck::NotMade { why_not },
-        });
-    }
+    let stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut locations[..named], &mut tr));
     let conditions = stresses.as_ref().map_or_else(Vec::new, |s| stress_conditions(s, sys));
     let camber = match (&demand, &stresses) {
         (Some(d), Some(s)) if s.release.checked => camber::of_member(&p, d, &mut tr),
@@ -312,7 +314,7 @@ fn member_with(
 
 /// The stresses at every station (each row gets its stages), the derivation at the
 /// station governing each stage recorded in the member's trace, and the member's
-/// summary.
+/// summary (with a class C member's crack control).
 fn stresses_along(
     p: &prepare::Prepared,
     d: &demand::Demand,
@@ -355,6 +357,13 @@ fn stresses_along(
         if let Some((x, s)) = worst {
             stresses::record_station(p, d, x, s, tr);
         }
+    }
+    // a class C member's crack control on the cracked section, where its bottom
+    // tension is largest
+    if summary.class == stresses::Class::C {
+        let c = cracked::crack_check(p, d, summary.ft_x, tr);
+        summary.pass &= !c.fails();
+        summary.crack_control = Some(c);
     }
     summary
 }
@@ -606,10 +615,7 @@ fn with_losses(m: &Member, basis: &'static dyn Basis, tr: &mut Trace) -> Result<
 pub fn phi_mn_along(m: &Member, basis: &'static dyn Basis, xs: &[f64]) -> Result<Vec<f64>> {
     let computed = with_losses(m, basis, &mut Trace::new(false))?;
     let m = computed.as_ref().map_or(m, |(effective, _)| effective);
-    let mut p = prepare(m, basis, &mut Trace::new(false))?;
-    // the development of debonded strand as the station table has it
-    p.service_tension = demand::of_member(&p, m, &mut Trace::new(false)).map(|d| stresses::service_tension(&p, &d));
-    let p = p;
+    let (p, _) = prepare_with_demand(m, basis, &mut Trace::new(false), None)?;
     xs.iter()
         .map(|&x| {
             let name = format!("x = {}", crate::trace::show(x));

@@ -256,9 +256,10 @@ pub(super) fn service_tension(p: &Prepared, d: &Demand) -> (f64, f64) {
     let len = d.length;
     let xs = (0..=PARTS).map(|k| len * k as f64 / PARTS as f64).chain([d.bearing, len - d.bearing]);
     let inside = xs.filter(|x| *x >= d.bearing && *x <= len - d.bearing);
-    inside
-        .filter_map(|x| at(&cx, x).into_iter().find(|s| s.stage == "service").map(|s| (s.bottom.stress, x)))
-        .fold((f64::NEG_INFINITY, 0.0), |a, b| if b.0 > a.0 { b } else { a })
+    first_largest(
+        inside.filter_map(|x| at(&cx, x).into_iter().find(|s| s.stage == "service").map(|s| (s.bottom.stress, x))),
+    )
+    .unwrap_or((f64::NEG_INFINITY, 0.0))
 }
 
 /// The moment at x under the service combination with the largest moment there.

@@ -151,3 +151,28 @@ pub fn quick_agrees<T: serde::de::DeserializeOwned + std::fmt::Debug>(name: &str
         (None, _) => false,
     }
 }
+
+/// A 12 x 24 in rectangle 40 ft long (simple span, end to end) under 0.2 klf of
+/// superimposed dead load and `live` klf of live load, f'c 6 ksi, with `concrete` more
+/// lines of `[member.concrete]` and `rest` after the section (strand layers, bars,
+/// options): the test member of the stress, class and cracked-section checks.
+pub fn rectangle_member(id: &str, live: &str, concrete: &str, rest: &str) -> String {
+    format!(
+        r##"
+[[member]]
+id = "{id}"
+length = 480.0
+[member.loads]
+superimposed_dead = "0.2 klf"
+live = "{live} klf"
+[member.concrete]
+fc = 6.0
+{concrete}
+[member.section]
+shape = "rectangle"
+width = 12.0
+height = 24.0
+{rest}
+"##
+    )
+}
