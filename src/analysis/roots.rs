@@ -3,12 +3,25 @@
 
 /// Finds x in [a, b] with f(x) = 0, given f(a) and f(b) of opposite signs. Stops when
 /// |f| <= ftol or the bracket is narrower than xtol. `None` without a sign change.
-pub fn brent(mut f: impl FnMut(f64) -> f64, a: f64, b: f64, fa: f64, fb: f64, xtol: f64, ftol: f64) -> Option<f64> {
+pub fn brent(f: impl FnMut(f64) -> f64, a: f64, b: f64, fa: f64, fb: f64, xtol: f64, ftol: f64) -> Option<f64> {
+    brent_value(f, a, b, fa, fb, xtol, ftol).map(|(x, _)| x)
+}
+
+/// As [`brent`], with f at the root found (already evaluated: no further call of f).
+pub fn brent_value(
+    mut f: impl FnMut(f64) -> f64,
+    a: f64,
+    b: f64,
+    fa: f64,
+    fb: f64,
+    xtol: f64,
+    ftol: f64,
+) -> Option<(f64, f64)> {
     if fa == 0.0 {
-        return Some(a);
+        return Some((a, fa));
     }
     if fb == 0.0 {
-        return Some(b);
+        return Some((b, fb));
     }
     if (fa < 0.0) == (fb < 0.0) || !fa.is_finite() || !fb.is_finite() {
         return None;
@@ -33,7 +46,7 @@ pub fn brent(mut f: impl FnMut(f64) -> f64, a: f64, b: f64, fa: f64, fb: f64, xt
         let delta = (xtol + 4.0 * f64::EPSILON * xcur.abs()) / 2.0;
         let sbis = (xblk - xcur) / 2.0;
         if fcur.abs() <= ftol || sbis.abs() < delta {
-            return Some(xcur);
+            return Some((xcur, fcur));
         }
         if spre.abs() > delta && fcur.abs() < fpre.abs() {
             let stry = if xpre == xblk {
@@ -62,7 +75,7 @@ pub fn brent(mut f: impl FnMut(f64) -> f64, a: f64, b: f64, fa: f64, fb: f64, xt
             return None;
         }
     }
-    Some(xcur)
+    Some((xcur, fcur))
 }
 
 /// Widens [x0 - step, x0 + step] geometrically until f changes sign; returns the
