@@ -1073,10 +1073,10 @@ fn debonded_strand_development_doubled_only_with_service_tension() {
     }
 }
 
-/// Tension that the scan deciding the development misses: a point load between two of
-/// its points (400 equal parts: every 1.2 in) raises the bottom stress to a small
-/// tension at the load alone, where a station stands. The member is analysed again with
-/// the debonded layer's development doubled.
+/// Tension at one point alone: a point load between two points of an even grid (400
+/// equal parts: every 1.2 in) raises the bottom stress to a small tension at the load
+/// alone. The decision for the debonded layer finds it (the point load is a break of
+/// its search), as the stations do: its development is doubled.
 #[test]
 fn tension_only_at_a_station_doubles_the_development() {
     // [statics] at x = 240.6 of a 480 in span: M = w x (L - x) / 2 + Q x (L - x) / L;
@@ -1091,7 +1091,7 @@ fn tension_only_at_a_station_doubles_the_development() {
             + if x <= xq { q * x * (480.0 - xq) / 480.0 } else { q * xq * (480.0 - x) / 480.0 };
         -pe / a - pe * 9.0 / sb + m / sb
     };
-    // the scan's neighbouring points see compression: the scan decides "no tension"
+    // an even grid's neighbouring points see compression
     assert!(bottom(240.0) < 0.0 && bottom(241.2) < 0.0, "{} {}", bottom(240.0), bottom(241.2));
     let body =
         sh("SH-3", &format!("{live:.12}")) + &format!("[[member.point_load]]\nkind = \"dead\"\nload = {q}\nx = {xq}\n");
@@ -1107,4 +1107,14 @@ fn tension_only_at_a_station_doubles_the_development() {
     let single = input("fse,2") / 3.0 * input("db") + (input("fps,2") - input("fse,2")) * input("db"); // [ACI] 25.4.8.1(a)
     same("SH-3: ld of the debonded layer, doubled", step.value, 2.0 * single); // [ACI] 25.4.8.1(b)
     assert!(step.note.as_deref().unwrap_or_default().contains("doubled for strand"), "{:?}", step.note);
+    // the capacity alone (phi_mn_along) decides the development as the analysis does:
+    // within the debonded layer's development, SH-3 has the strength of SH-2 (the same
+    // strand, doubled for its service tension), not that of SH-1 (not doubled)
+    let along = |body: String| {
+        let pkg = parse(&format!("{HEAD_US}{body}"));
+        analysis::phi_mn_along(&pkg.members[0], pkg.basis(), &[84.0]).expect("phi Mn")[0]
+    };
+    let (sh3, sh2, sh1) = (along(body.clone()), along(sh("SH-2", "0.5")), along(sh("SH-1", "0.1")));
+    same("SH-3: phi Mn at 84 in, as SH-2's", sh3, sh2);
+    assert!(sh1 > sh2 * 1.001, "undoubled {sh1} exceeds doubled {sh2}");
 }

@@ -127,7 +127,7 @@ pub struct Camber {
 /// The points where a moment of the member changes its form: its ends and middle, the
 /// bearings, each layer's debond point and the end of its transfer length from each end,
 /// the harp points and the point loads.
-fn breaks(p: &Prepared, d: &Demand) -> Vec<f64> {
+pub(super) fn breaks(p: &Prepared, d: &Demand) -> Vec<f64> {
     let len = d.length;
     let (d1, _) = p.basis.development_divisors();
     let mut xs = vec![0.0, len, len / 2.0, d.bearing, len - d.bearing];
@@ -449,7 +449,7 @@ fn record_live(p: &Prepared, d: &Demand, l: &LiveDeflection, tr: &mut Trace) {
 /// The live-load deflection of a class T or C member by the bilinear relation: Icr, the
 /// share of the live moment on the uncracked section, and the deflection.
 fn record_bilinear(p: &Prepared, d: &Demand, l: &LiveDeflection, v: f64, b: &Bilinear, tr: &mut Trace) {
-    use crate::trace::f::{add, div, mul, n, sub, v as var};
+    use crate::trace::f::{add, div, min, mul, n, sub, v as var};
     let u = p.sys.names();
     let show = crate::trace::show;
     let clause = p.basis.cite(crate::basis::Clause::CrackedDeflection);
@@ -465,14 +465,15 @@ fn record_bilinear(p: &Prepared, d: &Demand, l: &LiveDeflection, v: f64, b: &Bil
             ))
     });
     tr.rec(|| {
-        Step::new("camber", "camber.share", "Share of the live moment on the uncracked section", sy("r_g", "rg"))
-            .formula(div(var(0), var(1)))
-            .input(sy("M_(\"cr,L\")", "Mcr,L"), b.m_cr, Unit::Moment)
+        let st = Step::new("camber", "camber.share", "Share of the live moment on the uncracked section", sy("r_g", "rg"));
+        // no live moment: all of it (none) on the uncracked section
+        let st = if b.m_live > 0.0 { st.formula(min(vec![div(var(0), var(1)), n(1.0)])) } else { st };
+        st.input(sy("M_(\"cr,L\")", "Mcr,L"), b.m_cr, Unit::Moment)
             .input(sy("M_L", "ML"), b.m_live, Unit::Moment)
             .result(b.share, Unit::Ratio)
             .clause(clause.clone())
             .note(format!(
-                "at midspan: Mcr,L = (fr − fb) Sb, the live moment that brings the bottom fibre from {} {} under the prestress and the dead load to fr = {} {} (Sb = {} {}³); the rest of the live moment acts on the cracked section (the bilinear relation as the PCI Design Handbook applies it, from memory); at most 1",
+                "at midspan: Mcr,L = max(0, (fr − fb) Sb), the live moment that brings the bottom fibre from {} {} under the prestress and the dead load to fr = {} {} (Sb = {} {}³); the rest of the live moment acts on the cracked section (the bilinear relation as the PCI Design Handbook applies it, from memory)",
                 show(b.dead_bottom),
                 u.stress,
                 show(b.fr),

@@ -118,7 +118,8 @@ impl<'a> Transformed<'a> {
         let (lo, hi) = (self.p.m.region.y_bot(), self.p.top);
         const PARTS: usize = 400;
         let ys: Vec<f64> = (0..=PARTS).map(|k| lo + (hi - lo) * k as f64 / PARTS as f64).collect();
-        let y_low = self.steel.iter().map(|s| s.y).fold(f64::INFINITY, f64::min);
+        // the tension at the lowest tensioned strand, as crack_control reads it
+        let y_low = self.steel.iter().filter(|s| s.tensioned).map(|s| s.y).fold(f64::INFINITY, f64::min);
         let mut best: Option<(f64, f64, f64)> = None;
         for w in ys.windows(2) {
             let (fa, fb) = (f(w[0]), f(w[1]));
@@ -217,7 +218,7 @@ fn crack_control(p: &Prepared, d: &Demand, x: f64, tr: &mut Trace) -> Result<Cra
     };
     let (y, ek) = t
         .decompression(force, yp, moment)
-        .ok_or("the cracked section under the decompression force and the service moment has no equilibrium")?;
+        .ok_or("the cracked section under the decompression force and the service moment has no neutral axis within the section (it may not crack there at all); check the crack control by other means")?;
     let dfps = s.n * ek * (y - s.y);
     let db = m.strands[layer - 1].diameter;
     let cover = s.y - m.region.y_bot() - db / 2.0;
@@ -294,8 +295,9 @@ fn record(p: &Prepared, c: &CrackControl, tr: &mut Trace) {
             .result(c.dfps, Unit::Stress)
             .clause(basis.cite(Clause::CrackControl))
             .note(format!(
-                "layer {} (closest to the tension face, height ys); limit {} {}: {}; at or below {} {} the spacing is not limited; the top of the section at {} {} on the cracked section",
+                "layer {} (closest to the tension face, height ys){}; limit {} {}: {}; at or below {} {} the spacing is not limited; the top of the section at {} {} on the cracked section",
                 c.layer,
+                if c.dfps < 0.0 { ", negative: the strand stays below its decompression stress" } else { "" },
                 show(c.dfps_max),
                 names.stress,
                 if c.dfps <= c.dfps_max * (1.0 + 1e-9) { "within it" } else { "EXCEEDED" },

@@ -141,10 +141,10 @@ fn sym_k(base: &'static str, sub: &'static str, plain: &'static str, k: usize) -
 /// named locations, the governing station and the critical station of each end region).
 pub fn analyze_member(m: &Member, basis: &'static dyn Basis, trace: bool) -> Result<MemberResult> {
     let (first, decided) = member_with(m, basis, trace, None)?;
-    // the scan that decided the development of debonded strand found no service tension
-    // at the bottom, but the stations (or the scan between them) do: the design has
-    // tension in the precompressed tensile zone after all, and the member is analysed
-    // again with that tension
+    // a guard: the search that decided the development of debonded strand (exact on the
+    // pieces between the member's breaks) found no service tension at the bottom, but
+    // the stations or the scan between them do: the design has tension in the
+    // precompressed tensile zone after all, and the member is analysed again with it
     let found = first.stresses.as_ref().map(|s| (s.ft, s.ft_x));
     match (decided, found) {
         (Some((scan, _)), Some((ft, x)))

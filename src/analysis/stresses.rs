@@ -245,21 +245,43 @@ pub(super) fn between(p: &Prepared, d: &Demand, xs: &[f64]) -> Vec<(f64, String)
     out
 }
 
-/// The largest bottom stress under all service loads between the bearings and its x,
-/// on a scan of 400 equal parts of the member with both bearings: whether the design
-/// has tension in the precompressed tensile zone, which decides the development length
-/// of debonded strand (25.4.8.1(b)) before the stations (placed by that length) are
-/// known. The member's class is settled later on the stations and the scan together.
+/// The largest bottom stress under all service loads between the bearings and its x:
+/// whether the design has tension in the precompressed tensile zone, which decides the
+/// development length of debonded strand (25.4.8.1(b)) before the stations (placed by
+/// that length) are known. Exact: between the member's breaks (bearings, point loads,
+/// harp and debond points, the ends of the transfer lengths) the bottom stress under
+/// each combination is a quadratic in x (the prestress builds up linearly, a harped
+/// layer's depth is linear, the moments are at most quadratic), so its largest value
+/// lies at a break or at the vertex of the parabola through a piece's ends and middle.
 pub(super) fn service_tension(p: &Prepared, d: &Demand) -> (f64, f64) {
-    const PARTS: usize = 400;
     let cx = context(p, d);
-    let len = d.length;
-    let xs = (0..=PARTS).map(|k| len * k as f64 / PARTS as f64).chain([d.bearing, len - d.bearing]);
-    let inside = xs.filter(|x| *x >= d.bearing && *x <= len - d.bearing);
-    first_largest(
-        inside.filter_map(|x| at(&cx, x).into_iter().find(|s| s.stage == "service").map(|s| (s.bottom.stress, x))),
-    )
-    .unwrap_or((f64::NEG_INFINITY, 0.0))
+    let (lo, hi) = (d.bearing, d.length - d.bearing);
+    let nodes: Vec<f64> = super::camber::breaks(p, d).into_iter().filter(|x| *x >= lo && *x <= hi).collect();
+    let bottom = |x: f64, factors: &[f64; 4]| {
+        let (force, e) = force_at(p, x, &|i| p.m.strands[i].fse);
+        let (by_kind, mnc) = moments_at(&cx, x);
+        let m: f64 = factors.iter().zip(by_kind).map(|(f, m)| f * m).sum();
+        fibres(&cx, force, e, mnc, m - mnc).1
+    };
+    let mut points: Vec<(f64, f64)> = Vec::new();
+    for c in &cx.combinations {
+        let f = |x: f64| (bottom(x, &c.factors), x);
+        for w in nodes.windows(2) {
+            let (x0, x2) = (w[0], w[1]);
+            let x1 = 0.5 * (x0 + x2);
+            let (f0, f1, f2) = (f(x0), f(x1), f(x2));
+            points.extend([f0, f1, f2]);
+            // the vertex of the parabola through the three, where it is a maximum inside
+            let bend = f0.0 - 2.0 * f1.0 + f2.0;
+            if bend < 0.0 {
+                let t = (f0.0 - f2.0) / (2.0 * bend);
+                if t.abs() < 1.0 {
+                    points.push(f(x1 + t * (x2 - x0) / 2.0));
+                }
+            }
+        }
+    }
+    first_largest(points.into_iter()).unwrap_or((f64::NEG_INFINITY, 0.0))
 }
 
 /// The moment at x under the service combination with the largest moment there.
