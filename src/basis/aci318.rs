@@ -417,6 +417,21 @@ impl Basis for Aci318 {
 mod tests {
     use super::*;
 
+    // Table 24.3.2, bonded prestressed reinforcement (from memory), worked by hand: US,
+    // Δfps = 30 ksi, cc = 2 in: 15 (40/30) - 2.5 (2) = 15, 12 (40/30) = 16, (2/3) 15 = 10
+    // in; SI, Δfps = 200 MPa, cc = 50 mm: 380 (1.4) - 125 = 407, 300 (1.4) = 420,
+    // (2/3) 407 = 271.33 mm. 24.3.2: Δfps at most 36 ksi / 250 MPa, no spacing limit up to
+    // 20 ksi / 140 MPa.
+    #[test]
+    fn crack_spacing_by_hand() {
+        assert!((US.crack_spacing(30.0, 2.0) - 10.0).abs() < 1e-12);
+        assert!((SI.crack_spacing(200.0, 50.0) - 407.0 * 2.0 / 3.0).abs() < 1e-9);
+        // the second term governs at a small cover: 12 (40/30) (2/3) = 10.667 in
+        assert!((US.crack_spacing(30.0, 0.5) - 16.0 * 2.0 / 3.0).abs() < 1e-12);
+        assert_eq!(US.crack_control(), (36.0, 20.0));
+        assert_eq!(SI.crack_control(), (250.0, 140.0));
+    }
+
     // ACI 318-19 Table 5.3.1 (by hand): (5.3.1a) U = 1.4D; (5.3.1b) U = 1.2D + 1.6L +
     // 0.5(Lr or S or R); (5.3.1c) U = 1.2D + 1.6(Lr or S or R) + (1.0L or 0.5W); 5.3.3
     // permits 0.5L in (5.3.1c) with its exceptions.
