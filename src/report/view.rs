@@ -255,6 +255,8 @@ mod tests {
         "package.stresses_unchecked",
         "package.camber_computed",
         "package.deflection_not_computed",
+        "package.class_c",
+        "package.deflection_bilinear",
         "package.signoffs[].role",
         "package.signoffs[].name",
         "package.signoffs[].license",

@@ -145,6 +145,12 @@ pub struct PackageShown {
     pub camber_computed: Vec<String>,
     #[serde(default)]
     pub deflection_not_computed: Vec<String>,
+    /// Members of class C (their crack control made on the cracked section), and members
+    /// whose live-load deflection is found by the bilinear relation (class T or C).
+    #[serde(default)]
+    pub class_c: Vec<String>,
+    #[serde(default)]
+    pub deflection_bilinear: Vec<String>,
 }
 
 #[derive(Serialize, Deserialize, Clone)]
@@ -347,6 +353,8 @@ fn package_shown(meta: &Meta, a: &Analysis) -> PackageShown {
         stresses_unchecked: ids(&|m| m.stresses.is_none()),
         camber_computed: ids(&|m| m.camber.is_some()),
         deflection_not_computed: ids(&|m| m.deflection.as_ref().is_some_and(|l| l.live.is_none())),
+        class_c: ids(&|m| m.stresses.as_ref().is_some_and(|s| s.class == crate::analysis::stresses::Class::C)),
+        deflection_bilinear: ids(&|m| m.deflection.as_ref().is_some_and(|l| l.live.is_some() && l.cracked.is_some())),
         title: meta.title.clone(),
         project: meta.project.clone(),
         project_number: meta.project_number.clone(),
