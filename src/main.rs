@@ -283,98 +283,11 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             eprintln!("wrote {}: edit it, then run `strainsheet check {}`", file.display(), file.display());
             Ok(ExitCode::SUCCESS)
         }
-        Cmd::Check { file, json } => {
-            let (_, pkg) = input::load(&file)?;
-            let status = if json {
-                let out = strainsheet::check_members(&pkg)?;
-                write_stdout(|w| {
-                    out.write_json(&pkg, w)?;
-                    w.write_all(b"\n")
-                })?;
-                out.status
-            } else {
-                let a = analysis::analyze(&pkg, false)?;
-                write_stdout(|w| w.write_all(present::check_table(&pkg, &a).as_bytes()))?;
-                a.status()
-            };
-            Ok(result_code(status))
-        }
+        Cmd::Check { file, json } => check_cmd(file, json),
         Cmd::Report { file, output, overwrite, templates, bounds } => {
-            no_huge_pages();
-            let out = output.unwrap_or_else(|| file.with_extension("pdf"));
-            let mut side_path = out.clone().into_os_string();
-            side_path.push(".sha256");
-            let side_path = PathBuf::from(side_path);
-            // refuse what could not be written before the work of making it
-            output::preflight(&[&out, &side_path], overwrite)?;
-            let templates_dir = templates.clone();
-            let templates = match templates {
-                Some(dir) => report::Templates::from_dir(&dir)?,
-                None => report::Templates::builtin(),
-            };
-            let progress = Progress::new();
-            progress.phase("reading and checking the input");
-            let (src, pkg) = input::load(&file)?;
-            if pkg.members.len() > REPORT_MEMBERS {
-                return Err(Error::Usage(format!(
-                    "{} has {} members; a package typesets at most {REPORT_MEMBERS} (about {} sheets). Split the members into several input files, one package each; `check` takes them all at once.",
-                    file.display(),
-                    pkg.members.len(),
-                    REPORT_MEMBERS * 8
-                )));
-            }
-            watchdog(bounds, templates_dir.as_deref());
-            progress.phase(format!("analysing {} members", pkg.members.len()));
-            let a = analysis::analyze_full(&pkg)?;
-            let status = a.status();
-            let prepared = report::prepare(&pkg, &src, &a, &templates)?;
-            // the payload holds all of it now; the sheets are typeset from the views
-            drop(a);
-            let hooks = report::Hooks { progress: &|m| progress.phase(m), pause: &between_runs };
-            let r = report::typeset(&pkg, &src, prepared, &templates, &hooks)?;
-            progress.phase("writing");
-            let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
-            let side = sidecar::line(&r.pdf, &name);
-            let file_hash = integrity::sha256_hex(&r.pdf);
-            output::write_all(&[(out.clone(), r.pdf), (side_path.clone(), side.into_bytes())], overwrite)?;
-            progress.done();
-            print_warnings(&pkg);
-            eprintln!(
-                "wrote {} ({} sheets)\n  content hash (payload, on the cover): {}\n  file hash (PDF, in {}): {}",
-                out.display(),
-                r.pages,
-                r.hash,
-                side_path.display(),
-                file_hash
-            );
-            Ok(result_code(status))
+            report_cmd(file, output, overwrite, templates, bounds)
         }
-        Cmd::Verify { file, templates, pubkey, expect, bounds } => {
-            no_huge_pages();
-            watchdog(bounds, templates.as_deref());
-            let r = verify::verify(
-                &file,
-                &verify::Options {
-                    templates: templates.as_deref(),
-                    pubkey: pubkey.as_deref(),
-                    expect: expect.as_deref(),
-                    hooks: report::Hooks { pause: &between_runs, ..report::Hooks::default() },
-                },
-            )?;
-            write_stdout(|w| {
-                writeln!(w, "verify {}", file.display())?;
-                for c in &r.checks {
-                    let tag = match c.ok {
-                        Some(true) => "ok  ",
-                        Some(false) => "FAIL",
-                        None => "--  ",
-                    };
-                    writeln!(w, "  [{tag}] {}: {}", c.name, c.detail)?;
-                }
-                writeln!(w, "{}", r.verdict())
-            })?;
-            Ok(ExitCode::from(r.exit_code()))
-        }
+        Cmd::Verify { file, templates, pubkey, expect, bounds } => verify_cmd(file, templates, pubkey, expect, bounds),
         Cmd::Keygen { output, name, license } => {
             let public = sign::keygen(&output, &name, &license)?;
             eprintln!(
@@ -407,82 +320,200 @@ fn run(cli: Cli) -> Result<ExitCode, Error> {
             write_stdout(|w| w.write_all(text.as_bytes()))?;
             Ok(ExitCode::SUCCESS)
         }
-        Cmd::Curve { file, member, location, format } => {
-            let (_, pkg) = input::load(&file)?;
-            print_warnings(&pkg);
-            let ids: Vec<&str> = pkg.members.iter().map(|m| m.id.as_str()).collect();
-            let found = match &member {
-                Some(id) => pkg.members.iter().position(|m| &m.id == id),
-                None if pkg.members.len() == 1 => Some(0),
-                None => {
-                    return Err(Error::Usage(format!(
-                        "{} has {} members: choose one with --member ({})",
-                        file.display(),
-                        ids.len(),
-                        ids.join(", ")
-                    )));
-                }
-            };
-            let Some(mi) = found else {
-                return Err(Error::Usage(format!(
-                    "no member {:?} in {}; its members are {}",
-                    member.unwrap_or_default(),
-                    file.display(),
-                    ids.join(", ")
-                )));
-            };
-            let member = pkg.members[mi].id.clone();
-            let m = &pkg.members[mi];
-            let r = analysis::analyze_member(m, pkg.basis(), false)?;
-            let li = match &location {
-                Some(name) => r.locations.iter().position(|l| &l.name == name).ok_or_else(|| {
-                    let names: Vec<&str> = r.locations.iter().map(|l| l.name.as_str()).collect();
-                    Error::Usage(format!(
-                        "member {member} has no location {name:?}; its locations are {}",
-                        names.join(", ")
-                    ))
-                })?,
-                None => r.governing,
-            };
-            let c = analysis::curve::moment_curvature(r.member(m), pkg.basis(), &r.sites[li], li)?;
-            let text = match format {
-                CurveFormat::Json => {
-                    let v = present::curve_json(&pkg, &c, &r.locations[li]);
-                    format!("{}\n", serde_json::to_string_pretty(&v).map_err(|e| Error::Usage(e.to_string()))?)
-                }
-                CurveFormat::Csv => present::curve_csv(&pkg, &c),
-            };
-            write_stdout(|w| w.write_all(text.as_bytes()))?;
-            Ok(ExitCode::SUCCESS)
-        }
-        Cmd::Trace { file, member, format } => {
-            let (_, pkg) = input::load(&file)?;
-            print_warnings(&pkg);
-            if let Some(id) = &member
-                && !pkg.members.iter().any(|m| &m.id == id)
-            {
-                let ids: Vec<&str> = pkg.members.iter().map(|m| m.id.as_str()).collect();
-                return Err(Error::Usage(format!(
-                    "no member {id:?} in {}; its members are {}",
-                    file.display(),
-                    ids.join(", ")
-                )));
-            }
-            let form = match format {
-                TraceFormat::Text => strainsheet::TraceForm::Text,
-                TraceFormat::Json => strainsheet::TraceForm::Json,
-                TraceFormat::Csv => strainsheet::TraceForm::Csv,
-            };
-            // an analysis error stops the writing and is reported
-            let mut outcome = Ok(());
-            write_stdout(|w| {
-                outcome = strainsheet::write_trace(&pkg, member.as_deref(), form, w)?;
-                Ok(())
-            })?;
-            outcome?;
-            Ok(ExitCode::SUCCESS)
-        }
+        Cmd::Curve { file, member, location, format } => curve_cmd(file, member, location, format),
+        Cmd::Trace { file, member, format } => trace_cmd(file, member, format),
     }
+}
+
+/// `report`: analyse, typeset and write the package and its sidecar.
+fn report_cmd(
+    file: PathBuf,
+    output: Option<PathBuf>,
+    overwrite: bool,
+    templates: Option<PathBuf>,
+    bounds: Bounds,
+) -> Result<ExitCode, Error> {
+    no_huge_pages();
+    let out = output.unwrap_or_else(|| file.with_extension("pdf"));
+    let mut side_path = out.clone().into_os_string();
+    side_path.push(".sha256");
+    let side_path = PathBuf::from(side_path);
+    // refuse what could not be written before the work of making it
+    output::preflight(&[&out, &side_path], overwrite)?;
+    let templates_dir = templates.clone();
+    let templates = match templates {
+        Some(dir) => report::Templates::from_dir(&dir)?,
+        None => report::Templates::builtin(),
+    };
+    let progress = Progress::new();
+    progress.phase("reading and checking the input");
+    let (src, pkg) = input::load(&file)?;
+    if pkg.members.len() > REPORT_MEMBERS {
+        return Err(Error::Usage(format!(
+            "{} has {} members; a package typesets at most {REPORT_MEMBERS} (about {} sheets). Split the members into several input files, one package each; `check` takes them all at once.",
+            file.display(),
+            pkg.members.len(),
+            REPORT_MEMBERS * 8
+        )));
+    }
+    watchdog(bounds, templates_dir.as_deref());
+    progress.phase(format!("analysing {} members", pkg.members.len()));
+    let a = analysis::analyze_full(&pkg)?;
+    let status = a.status();
+    let prepared = report::prepare(&pkg, &src, &a, &templates)?;
+    // the payload holds all of it now; the sheets are typeset from the views
+    drop(a);
+    let hooks = report::Hooks { progress: &|m| progress.phase(m), pause: &between_runs };
+    let r = report::typeset(&pkg, &src, prepared, &templates, &hooks)?;
+    progress.phase("writing");
+    let name = out.file_name().map(|n| n.to_string_lossy().into_owned()).unwrap_or_default();
+    let side = sidecar::line(&r.pdf, &name);
+    let file_hash = integrity::sha256_hex(&r.pdf);
+    output::write_all(&[(out.clone(), r.pdf), (side_path.clone(), side.into_bytes())], overwrite)?;
+    progress.done();
+    print_warnings(&pkg);
+    eprintln!(
+        "wrote {} ({} sheets)\n  content hash (payload, on the cover): {}\n  file hash (PDF, in {}): {}",
+        out.display(),
+        r.pages,
+        r.hash,
+        side_path.display(),
+        file_hash
+    );
+    Ok(result_code(status))
+}
+
+/// `verify`: the checks of a package file, one line each, and the verdict.
+fn verify_cmd(
+    file: PathBuf,
+    templates: Option<PathBuf>,
+    pubkey: Option<PathBuf>,
+    expect: Option<String>,
+    bounds: Bounds,
+) -> Result<ExitCode, Error> {
+    no_huge_pages();
+    watchdog(bounds, templates.as_deref());
+    let r = verify::verify(
+        &file,
+        &verify::Options {
+            templates: templates.as_deref(),
+            pubkey: pubkey.as_deref(),
+            expect: expect.as_deref(),
+            hooks: report::Hooks { pause: &between_runs, ..report::Hooks::default() },
+        },
+    )?;
+    write_stdout(|w| {
+        writeln!(w, "verify {}", file.display())?;
+        for c in &r.checks {
+            let tag = match c.ok {
+                Some(true) => "ok  ",
+                Some(false) => "FAIL",
+                None => "--  ",
+            };
+            writeln!(w, "  [{tag}] {}: {}", c.name, c.detail)?;
+        }
+        writeln!(w, "{}", r.verdict())
+    })?;
+    Ok(ExitCode::from(r.exit_code()))
+}
+
+/// `curve`: the moment-curvature response of one member at one of its locations.
+fn curve_cmd(
+    file: PathBuf,
+    member: Option<String>,
+    location: Option<String>,
+    format: CurveFormat,
+) -> Result<ExitCode, Error> {
+    let (_, pkg) = input::load(&file)?;
+    print_warnings(&pkg);
+    let ids: Vec<&str> = pkg.members.iter().map(|m| m.id.as_str()).collect();
+    let found = match &member {
+        Some(id) => pkg.members.iter().position(|m| &m.id == id),
+        None if pkg.members.len() == 1 => Some(0),
+        None => {
+            return Err(Error::Usage(format!(
+                "{} has {} members: choose one with --member ({})",
+                file.display(),
+                ids.len(),
+                ids.join(", ")
+            )));
+        }
+    };
+    let Some(mi) = found else {
+        return Err(Error::Usage(format!(
+            "no member {:?} in {}; its members are {}",
+            member.unwrap_or_default(),
+            file.display(),
+            ids.join(", ")
+        )));
+    };
+    let member = pkg.members[mi].id.clone();
+    let m = &pkg.members[mi];
+    let r = analysis::analyze_member(m, pkg.basis(), false)?;
+    let li = match &location {
+        Some(name) => r.locations.iter().position(|l| &l.name == name).ok_or_else(|| {
+            let names: Vec<&str> = r.locations.iter().map(|l| l.name.as_str()).collect();
+            Error::Usage(format!("member {member} has no location {name:?}; its locations are {}", names.join(", ")))
+        })?,
+        None => r.governing,
+    };
+    let c = analysis::curve::moment_curvature(r.member(m), pkg.basis(), &r.sites[li], li)?;
+    let text = match format {
+        CurveFormat::Json => {
+            let v = present::curve_json(&pkg, &c, &r.locations[li]);
+            format!("{}\n", serde_json::to_string_pretty(&v).map_err(|e| Error::Usage(e.to_string()))?)
+        }
+        CurveFormat::Csv => present::curve_csv(&pkg, &c),
+    };
+    write_stdout(|w| w.write_all(text.as_bytes()))?;
+    Ok(ExitCode::SUCCESS)
+}
+
+/// `trace`: every recorded step, of all members or of one.
+fn trace_cmd(file: PathBuf, member: Option<String>, format: TraceFormat) -> Result<ExitCode, Error> {
+    let (_, pkg) = input::load(&file)?;
+    print_warnings(&pkg);
+    if let Some(id) = &member
+        && !pkg.members.iter().any(|m| &m.id == id)
+    {
+        let ids: Vec<&str> = pkg.members.iter().map(|m| m.id.as_str()).collect();
+        return Err(Error::Usage(format!(
+            "no member {id:?} in {}; its members are {}",
+            file.display(),
+            ids.join(", ")
+        )));
+    }
+    let form = match format {
+        TraceFormat::Text => strainsheet::TraceForm::Text,
+        TraceFormat::Json => strainsheet::TraceForm::Json,
+        TraceFormat::Csv => strainsheet::TraceForm::Csv,
+    };
+    // an analysis error stops the writing and is reported
+    let mut outcome = Ok(());
+    write_stdout(|w| {
+        outcome = strainsheet::write_trace(&pkg, member.as_deref(), form, w)?;
+        Ok(())
+    })?;
+    outcome?;
+    Ok(ExitCode::SUCCESS)
+}
+
+/// `check`: the table of results, or their JSON.
+fn check_cmd(file: PathBuf, json: bool) -> Result<ExitCode, Error> {
+    let (_, pkg) = input::load(&file)?;
+    let status = if json {
+        let out = strainsheet::check_members(&pkg)?;
+        write_stdout(|w| {
+            out.write_json(&pkg, w)?;
+            w.write_all(b"\n")
+        })?;
+        out.status
+    } else {
+        let a = analysis::analyze(&pkg, false)?;
+        write_stdout(|w| w.write_all(present::check_table(&pkg, &a).as_bytes()))?;
+        a.status()
+    };
+    Ok(result_code(status))
 }
 
 /// The exit status of a result: 0 every check met, 1 a check not met, 3 every check

@@ -275,9 +275,32 @@ pub fn write_check_json(
     w.write_all(b"}")
 }
 
-/// `check`: one row per location.
+/// `check`: one row per location, the members' stresses, the open conditions, the
+/// warnings and the totals.
 pub fn check_table(pkg: &Package, a: &Analysis) -> String {
     let u = pkg.units.names();
+    // the open conditions, numbered as the table refers to them
+    let mut open: Vec<String> = Vec::new();
+    let rows = strength_rows(a, &u, &mut open);
+    let mut out = format!("{} — {} ({} units)\n", pkg.meta.title, pkg.meta.project, pkg.units.label());
+    out.push_str(&text_table(&rows, &|c| c < 2 || c == 5 || c == 8 || c == 14));
+    out.push_str(&stress_table(a, &u, &mut open));
+    if !open.is_empty() {
+        out.push_str("Open conditions (the result holds only once each is settled):\n");
+        for (k, text) in open.iter().enumerate() {
+            out.push_str(&format!("  [{}] {text}\n", k + 1));
+        }
+    }
+    for w in &pkg.warnings {
+        out.push_str(&format!("warning: {}: {}: {}\n", w.at, w.key, w.message));
+    }
+    out.push_str(&totals(a));
+    out
+}
+
+/// The strength table: its head and a row per location; the open conditions its rows
+/// refer to are added to `open`.
+fn strength_rows(a: &Analysis, u: &crate::units::UnitNames, open: &mut Vec<String>) -> Vec<Vec<String>> {
     let mut rows: Vec<Vec<String>> = vec![vec![
         "member".into(),
         "location".into(),
@@ -295,8 +318,6 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
         "1.2 Mcr".into(),
         "result".into(),
     ]];
-    // the open conditions, numbered as the table refers to them
-    let mut open: Vec<String> = Vec::new();
     for m in &a.members {
         for l in &m.locations {
             let fps = l
@@ -329,24 +350,19 @@ pub fn check_table(pkg: &Package, a: &Analysis) -> String {
                 crate::trace::ratio_text(l.ratio),
                 minr.into(),
                 match l.status {
-                    Status::Conditional => format!("conditional [{}]", notes_of(&mut open, m, l)),
+                    Status::Conditional => format!("conditional [{}]", notes_of(open, m, l)),
                     st => st.word().into(),
                 },
             ]);
         }
     }
-    let mut out = format!("{} — {} ({} units)\n", pkg.meta.title, pkg.meta.project, pkg.units.label());
-    out.push_str(&text_table(&rows, &|c| c < 2 || c == 5 || c == 8 || c == 14));
-    out.push_str(&stress_table(a, &u, &mut open));
-    if !open.is_empty() {
-        out.push_str("Open conditions (the result holds only once each is settled):\n");
-        for (k, text) in open.iter().enumerate() {
-            out.push_str(&format!("  [{}] {text}\n", k + 1));
-        }
-    }
-    for w in &pkg.warnings {
-        out.push_str(&format!("warning: {}: {}: {}\n", w.at, w.key, w.message));
-    }
+    rows
+}
+
+/// The closing lines of `check`: how many locations and members pass, fail or hold on
+/// open conditions.
+fn totals(a: &Analysis) -> String {
+    let mut out = String::new();
     let (mut n, mut failed, mut cond) = (0, 0, 0);
     for l in a.members.iter().flat_map(|m| &m.locations) {
         n += 1;

@@ -16,6 +16,7 @@ use super::demand::Demand;
 use super::prepare::Prepared;
 use super::stresses::{Class, force_at};
 use super::sy;
+use crate::basis::Clause;
 use crate::input::model::{LoadKind, Profile};
 use crate::trace::{Step, Trace, Unit};
 use serde::Serialize;
@@ -290,8 +291,9 @@ fn live(p: &Prepared, d: &Demand, class: Class) -> LiveDeflection {
             Err(why) => {
                 out.live = None;
                 out.why_not = Some(format!(
-                    "class {}: the deflection needs the cracked section (ACI 318-19 24.2.3.9), and {why}",
-                    class.letter()
+                    "class {}: the deflection needs the cracked section ({}), and {why}",
+                    class.letter(),
+                    p.basis.cite(Clause::CrackedDeflection)
                 ));
             }
         }

@@ -280,53 +280,8 @@ pub(super) fn record_at(d: &Demand, p: &Prepared, tag: &str, at: &MomentsAt, tr:
     let sys = p.sys;
     let km = p.cv.km;
     let x = at.x;
-    let (a, b) = d.bearings();
-    let between = x >= a && x <= b;
     for (ki, kind) in LoadKind::ALL.iter().enumerate() {
-        let ws: f64 = d.uniform.iter().filter(|u| u.kind == *kind).map(|u| u.w).sum();
-        let pts: Vec<&PointLoad> = d.points.iter().filter(|q| q.kind == *kind).collect();
-        if ws == 0.0 && pts.is_empty() {
-            continue;
-        }
-        tr.rec(|| {
-            let sym = crate::trace::Symbol {
-                math: sub_math("M", *kind),
-                plain: format!("M{}", kind.symbol()),
-            };
-            let mut st = Step::new("demand", format!("{tag}.demand.M{}", kind.symbol()), format!("Unfactored {} load moment at x", kind.word()), sym);
-            let mut terms = Vec::new();
-            if ws > 0.0 {
-                let w_sym = crate::trace::Symbol { math: sub_math("w", *kind), plain: format!("w{}", kind.symbol()) };
-                st = st.input(w_sym, line_shown(sys, ws), Unit::LineLoad);
-                let (with, term) = uniform_term(st, d, x, sys);
-                st = with;
-                terms.push(term);
-            }
-            for q in &pts {
-                let i = st.inputs.len();
-                // the load's number, not its name: user text never enters a math string
-                let j = d.points.iter().position(|p| std::ptr::eq(p, *q)).unwrap_or(0) + 1;
-                st = st.input(crate::trace::Symbol { math: format!("M_(P {j})"), plain: format!("M,P{j}") }, d.point_moment(q.p, q.x, x) * km, Unit::Moment);
-                terms.push(v(i));
-            }
-            let formula = if terms.len() == 1 { terms.remove(0) } else { add(terms) };
-            let mut note = String::from(if between {
-                "the sum of the uniform loads of this kind over a simple span between the bearings, the overhangs loaded too: M = w/2 (x'(S - x') - a²) with x' = x - a"
-            } else {
-                "over the overhang past a bearing: M = -w xo²/2"
-            });
-            if !pts.is_empty() {
-                let names: Vec<String> = d
-                    .points
-                    .iter()
-                    .enumerate()
-                    .filter(|(_, p)| p.kind == *kind)
-                    .map(|(j, p)| format!("P{} {}", j + 1, p.name))
-                    .collect();
-                note.push_str(&format!("; point loads by statics, their reactions over the span S ({})", names.join(", ")));
-            }
-            st.formula(formula).result(at.by_kind[ki] * km, Unit::Moment).note(note)
-        });
+        record_kind(d, p, tag, at, (ki, *kind), tr);
     }
     tr.rec(|| {
         let c = &d.combinations[at.combination];
@@ -378,6 +333,60 @@ pub(super) fn record_at(d: &Demand, p: &Prepared, tag: &str, at: &MomentsAt, tr:
             })
         });
     }
+}
+
+/// The step of one load kind's unfactored moment at a traced section (none where the
+/// member has no load of that kind).
+fn record_kind(d: &Demand, p: &Prepared, tag: &str, at: &MomentsAt, (ki, kind): (usize, LoadKind), tr: &mut Trace) {
+    let sys = p.sys;
+    let km = p.cv.km;
+    let x = at.x;
+    let (a, b) = d.bearings();
+    let between = x >= a && x <= b;
+    let ws: f64 = d.uniform.iter().filter(|u| u.kind == kind).map(|u| u.w).sum();
+    let pts: Vec<&PointLoad> = d.points.iter().filter(|q| q.kind == kind).collect();
+    if ws == 0.0 && pts.is_empty() {
+        return;
+    }
+    tr.rec(|| {
+        let sym = crate::trace::Symbol {
+            math: sub_math("M", kind),
+            plain: format!("M{}", kind.symbol()),
+        };
+        let mut st = Step::new("demand", format!("{tag}.demand.M{}", kind.symbol()), format!("Unfactored {} load moment at x", kind.word()), sym);
+        let mut terms = Vec::new();
+        if ws > 0.0 {
+            let w_sym = crate::trace::Symbol { math: sub_math("w", kind), plain: format!("w{}", kind.symbol()) };
+            st = st.input(w_sym, line_shown(sys, ws), Unit::LineLoad);
+            let (with, term) = uniform_term(st, d, x, sys);
+            st = with;
+            terms.push(term);
+        }
+        for q in &pts {
+            let i = st.inputs.len();
+            // the load's number, not its name: user text never enters a math string
+            let j = d.points.iter().position(|p| std::ptr::eq(p, *q)).unwrap_or(0) + 1;
+            st = st.input(crate::trace::Symbol { math: format!("M_(P {j})"), plain: format!("M,P{j}") }, d.point_moment(q.p, q.x, x) * km, Unit::Moment);
+            terms.push(v(i));
+        }
+        let formula = if terms.len() == 1 { terms.remove(0) } else { add(terms) };
+        let mut note = String::from(if between {
+            "the sum of the uniform loads of this kind over a simple span between the bearings, the overhangs loaded too: M = w/2 (x'(S - x') - a²) with x' = x - a"
+        } else {
+            "over the overhang past a bearing: M = -w xo²/2"
+        });
+        if !pts.is_empty() {
+            let names: Vec<String> = d
+                .points
+                .iter()
+                .enumerate()
+                .filter(|(_, p)| p.kind == kind)
+                .map(|(j, p)| format!("P{} {}", j + 1, p.name))
+                .collect();
+            note.push_str(&format!("; point loads by statics, their reactions over the span S ({})", names.join(", ")));
+        }
+        st.formula(formula).result(at.by_kind[ki] * km, Unit::Moment).note(note)
+    });
 }
 
 /// The moment of a uniform load over the whole member at x, for a step whose input 0 is

@@ -192,40 +192,16 @@ fn member_with(
     let (p, demand) = prepare_with_demand(m, basis, &mut tr, tension)?;
     tr.steps.append(&mut lt.steps);
     prestress::record_member(&p, &mut tr);
-    let mut sites = Vec::with_capacity(m.locations.len() + 3);
-    for l in &m.locations {
-        let site = station::Station::of_location(l, demand.as_ref()).ok_or_else(|| crate::error::Error::Analysis {
-            member: m.id.clone(),
-            location: l.name.clone(),
-            message: "no moment is given here and the member has no loads to derive it from".into(),
-        })?;
-        sites.push(site);
-    }
+    let mut sites = sites_of(m, demand.as_ref())?;
     // where the stresses are checked along the member, they settle what the prestress
     // alone leaves open at a section
     let stresses_checked = demand.is_some() && stresses::release_checked(&p);
     let mut ends = curve::CurveEnds::new(&p);
-    let stations = match &demand {
+    let mut stations = match &demand {
         Some(d) => along_span(&p, d, &mut sites, &mut ends)?,
         None => Vec::new(),
     };
-    let mut locations = Vec::with_capacity(sites.len());
-    for (li, site) in sites.iter().enumerate() {
-        let mut r = location::location(&p, li, site, trace)?;
-        if let (Some(d), Some(at)) = (&demand, &site.moments) {
-            // the demand's steps first: where the moments come from
-            let mut dt = Trace::new(trace);
-            demand::record_at(d, &p, &format!("L{}", li + 1), at, &mut dt);
-            let mut steps = dt.steps;
-            name_conversions(sys, &mut steps);
-            steps.append(&mut r.trace);
-            r.trace = steps;
-            r.demand_from_loads = d.combinations.get(at.combination).map(|c| c.name.clone());
-        }
-        settle_with_curve(&mut ends, site, li, &mut r, stresses_checked);
-        locations.push(r);
-    }
-    let mut stations = stations;
+    let mut locations = derive_locations(&p, demand.as_ref(), &sites, &mut ends, trace, stresses_checked)?;
     let named = m.locations.len();
     let stresses = demand.as_ref().map(|d| stresses_along(&p, d, &mut stations, &mut locations[..named], &mut tr));
     let conditions = stresses.as_ref().map_or_else(Vec::new, |s| stress_conditions(s, sys));
@@ -247,42 +223,8 @@ fn member_with(
             text: format!("The live-load deflection limit of the input is not checked: {why}."),
         });
     }
-    let governing =
-        locations.iter().enumerate().max_by(|a, b| a.1.ratio.total_cmp(&b.1.ratio)).map(|(i, _)| i).unwrap_or(0);
-    let pass = locations.iter().all(|l| l.pass)
-        && stations.iter().all(|s| s.pass)
-        && stresses.as_ref().is_none_or(|s| s.pass)
-        && deflection.as_ref().is_none_or(|l| l.ok);
-    let status = locations
-        .iter()
-        .map(|l| l.status)
-        .chain(stations.iter().map(|s| s.status))
-        .chain(conditions.iter().map(|_| conclusion::Status::Conditional))
-        .chain((!pass).then_some(conclusion::Status::Fail))
-        .fold(conclusion::Status::Pass, |s, l| s.and(l));
-    let geometry = Geometry {
-        outline: m.region.outline.clone(),
-        holes: m.region.holes.clone(),
-        topping: p.topping_region.as_ref().map(|r| [r.x_min(), r.y_bot(), r.x_max(), r.y_top()]),
-        x_min: p.topping_region.as_ref().map_or(m.region.x_min(), |r| r.x_min().min(m.region.x_min())),
-        x_max: p.topping_region.as_ref().map_or(m.region.x_max(), |r| r.x_max().max(m.region.x_max())),
-        y_min: m.region.y_bot(),
-        y_max: p.top,
-    };
-    let section = SectionResult {
-        shape: m.shape.name(),
-        precast_height: m.precast_height(),
-        height: m.total_height(),
-        precast: PropsOut::of(&p.precast),
-        composite: p.composite.as_ref().map(PropsOut::of),
-        modular_ratio: p.n,
-        ec: m.concrete.ec,
-        fr: m.concrete.fr,
-        ec_topping: m.topping.as_ref().map(|t| t.concrete.ec),
-        beta1: p.beta1,
-        geometry,
-        asymmetric: prepare::asymmetric(&m.region),
-    };
+    let (governing, pass, status) = verdict(&locations, &stations, stresses.as_ref(), deflection.as_ref(), &conditions);
+    let section = section_result(m, &p);
     let mut steps = tr.steps;
     name_conversions(sys, &mut steps);
     let decided = p.service_tension;
@@ -310,6 +252,104 @@ fn member_with(
         },
         decided,
     ))
+}
+
+/// The member's named locations as sections, with their moments (given, or from the
+/// demand at their x).
+fn sites_of(m: &Member, demand: Option<&demand::Demand>) -> Result<Vec<station::Station>> {
+    let mut sites = Vec::with_capacity(m.locations.len() + 3);
+    for l in &m.locations {
+        let site = station::Station::of_location(l, demand).ok_or_else(|| crate::error::Error::Analysis {
+            member: m.id.clone(),
+            location: l.name.clone(),
+            message: "no moment is given here and the member has no loads to derive it from".into(),
+        })?;
+        sites.push(site);
+    }
+    Ok(sites)
+}
+
+/// Each section derived in full (a named location, the governing station, the critical
+/// station of each end region): its strength, its demand's steps first where the
+/// member has loads, and strand rupture settled by its curve's end.
+fn derive_locations(
+    p: &prepare::Prepared,
+    demand: Option<&demand::Demand>,
+    sites: &[station::Station],
+    ends: &mut curve::CurveEnds,
+    trace: bool,
+    stresses_checked: bool,
+) -> Result<Vec<LocationResult>> {
+    let sys = p.sys;
+    let mut locations = Vec::with_capacity(sites.len());
+    for (li, site) in sites.iter().enumerate() {
+        let mut r = location::location(p, li, site, trace)?;
+        if let (Some(d), Some(at)) = (demand, &site.moments) {
+            // the demand's steps first: where the moments come from
+            let mut dt = Trace::new(trace);
+            demand::record_at(d, p, &format!("L{}", li + 1), at, &mut dt);
+            let mut steps = dt.steps;
+            name_conversions(sys, &mut steps);
+            steps.append(&mut r.trace);
+            r.trace = steps;
+            r.demand_from_loads = d.combinations.get(at.combination).map(|c| c.name.clone());
+        }
+        settle_with_curve(ends, site, li, &mut r, stresses_checked);
+        locations.push(r);
+    }
+    Ok(locations)
+}
+
+/// The section's properties and outline as the results give them.
+fn section_result(m: &Member, p: &prepare::Prepared) -> SectionResult {
+    let geometry = Geometry {
+        outline: m.region.outline.clone(),
+        holes: m.region.holes.clone(),
+        topping: p.topping_region.as_ref().map(|r| [r.x_min(), r.y_bot(), r.x_max(), r.y_top()]),
+        x_min: p.topping_region.as_ref().map_or(m.region.x_min(), |r| r.x_min().min(m.region.x_min())),
+        x_max: p.topping_region.as_ref().map_or(m.region.x_max(), |r| r.x_max().max(m.region.x_max())),
+        y_min: m.region.y_bot(),
+        y_max: p.top,
+    };
+    SectionResult {
+        shape: m.shape.name(),
+        precast_height: m.precast_height(),
+        height: m.total_height(),
+        precast: PropsOut::of(&p.precast),
+        composite: p.composite.as_ref().map(PropsOut::of),
+        modular_ratio: p.n,
+        ec: m.concrete.ec,
+        fr: m.concrete.fr,
+        ec_topping: m.topping.as_ref().map(|t| t.concrete.ec),
+        beta1: p.beta1,
+        geometry,
+        asymmetric: prepare::asymmetric(&m.region),
+    }
+}
+
+/// The member's governing location (highest Mu / phi Mn), whether every check is met,
+/// and its status (conditional where an open condition remains).
+fn verdict(
+    locations: &[LocationResult],
+    stations: &[StationRow],
+    stresses: Option<&stresses::MemberStresses>,
+    deflection: Option<&camber::LiveDeflection>,
+    conditions: &[conclusion::Condition],
+) -> (usize, bool, conclusion::Status) {
+    let governing =
+        locations.iter().enumerate().max_by(|a, b| a.1.ratio.total_cmp(&b.1.ratio)).map(|(i, _)| i).unwrap_or(0);
+    let pass = locations.iter().all(|l| l.pass)
+        && stations.iter().all(|s| s.pass)
+        && stresses.is_none_or(|s| s.pass)
+        && deflection.is_none_or(|l| l.ok);
+    let status = locations
+        .iter()
+        .map(|l| l.status)
+        .chain(stations.iter().map(|s| s.status))
+        .chain(conditions.iter().map(|_| conclusion::Status::Conditional))
+        .chain((!pass).then_some(conclusion::Status::Fail))
+        .fold(conclusion::Status::Pass, |s, l| s.and(l));
+    (governing, pass, status)
 }
 
 /// The stresses at every station (each row gets its stages), the derivation at the

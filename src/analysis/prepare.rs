@@ -68,6 +68,36 @@ pub(super) fn prepare<'a>(m: &'a Member, basis: &'static dyn Basis, tr: &mut Tra
     // material steps
     let c = &m.concrete;
     record_concrete(tr, basis, "precast", c, "");
+    record_precast(m, &precast, tr);
+    let (topping_region, composite, n, fc_top) = match &m.topping {
+        Some(tp) => {
+            let (region, comp, n) = composite_section(m, basis, tp, &precast, tr);
+            (Some(region), Some(comp), Some(n), tp.concrete.fc)
+        }
+        None => (None, None, None, c.fc),
+    };
+    let beta1 = record_beta1(m, basis, fc_top, tr);
+    Ok(Prepared {
+        m,
+        basis,
+        sys,
+        cv,
+        precast,
+        composite,
+        n,
+        topping_region,
+        top_p,
+        top: top_p + t,
+        t,
+        beta1,
+        fc_top,
+        curves,
+        service_tension: None,
+    })
+}
+
+/// The precast section's properties, recorded: area, centroid, inertia and moduli.
+fn record_precast(m: &Member, precast: &Props, tr: &mut Trace) {
     tr.rec(|| {
         Step::new("section", "section.A", "Area of the precast section", sy("A", "A"))
             .result(precast.area, Unit::Area)
@@ -96,56 +126,65 @@ pub(super) fn prepare<'a>(m: &'a Member, basis: &'static dyn Basis, tr: &mut Tra
             .input(sy("y_t", "yt"), precast.ct(), Unit::Length)
             .result(precast.st(), Unit::Modulus)
     });
-    let (topping_region, composite, n, fc_top) = match &m.topping {
-        Some(tp) => {
-            record_concrete(tr, basis, "topping", &tp.concrete, "t");
-            let x0 = tp.x_center - tp.width / 2.0;
-            let x1 = tp.x_center + tp.width / 2.0;
-            let region = Region::new(vec![[x0, top_p], [x1, top_p], [x1, top_p + t], [x0, top_p + t]], vec![]);
-            let n = tp.concrete.ec / c.ec;
-            let mt = region.moments();
-            let comp = Props::from_moments(m.region.moments() + mt.scaled(n), top_p + t, m.region.y_bot());
-            tr.rec(|| {
-                Step::new("section", "composite.n", "Modular ratio of the topping", sy("n", "n"))
-                    .formula(div(v(0), v(1)))
-                    .input(sy("E_(c,t)", "Ec,t"), tp.concrete.ec, Unit::Stress)
-                    .input(sy("E_c", "Ec"), c.ec, Unit::Stress)
-                    .result(n, Unit::Ratio)
-            });
-            tr.rec(|| {
-                Step::new("section", "composite.A", "Area of the transformed composite section", sy("A_c", "Ac"))
-                    .formula(add(vec![v(0), mul(vec![v(1), v(2), v(3)])]))
-                    .input(sy("A", "A"), precast.area, Unit::Area)
-                    .input(sy("n", "n"), n, Unit::Ratio)
-                    .input(sy("b_t", "bt"), tp.width, Unit::Length)
-                    .input(sy("t", "t"), t, Unit::Length)
-                    .result(comp.area, Unit::Area)
-            });
-            tr.rec(|| {
-                Step::new(
-                    "section",
-                    "composite.ybc",
-                    "Height of the composite centroid above the bottom",
-                    sy("y_(b c)", "ybc"),
-                )
-                .result(comp.cb(), Unit::Length)
-                .note("transformed section: the topping's area taken at n")
-            });
-            tr.rec(|| {
-                Step::new("section", "composite.Ic", "Moment of inertia of the composite section", sy("I_c", "Ic"))
-                    .result(comp.i, Unit::Inertia)
-            });
-            tr.rec(|| {
-                Step::new("section", "composite.Sbc", "Composite section modulus, bottom fibre", sy("S_(b c)", "Sbc"))
-                    .formula(div(v(0), v(1)))
-                    .input(sy("I_c", "Ic"), comp.i, Unit::Inertia)
-                    .input(sy("y_(b c)", "ybc"), comp.cb(), Unit::Length)
-                    .result(comp.sb(), Unit::Modulus)
-            });
-            (Some(region), Some(comp), Some(n), tp.concrete.fc)
-        }
-        None => (None, None, None, c.fc),
-    };
+}
+
+/// The topping's concrete and the transformed composite section (the topping's area
+/// taken at the modular ratio n), recorded: the topping's region, the composite
+/// section's properties and n.
+fn composite_section(
+    m: &Member,
+    basis: &'static dyn Basis,
+    tp: &crate::input::model::Topping,
+    precast: &Props,
+    tr: &mut Trace,
+) -> (Region, Props, f64) {
+    let c = &m.concrete;
+    let top_p = m.region.y_top();
+    let t = m.topping_thickness();
+    record_concrete(tr, basis, "topping", &tp.concrete, "t");
+    let x0 = tp.x_center - tp.width / 2.0;
+    let x1 = tp.x_center + tp.width / 2.0;
+    let region = Region::new(vec![[x0, top_p], [x1, top_p], [x1, top_p + t], [x0, top_p + t]], vec![]);
+    let n = tp.concrete.ec / c.ec;
+    let mt = region.moments();
+    let comp = Props::from_moments(m.region.moments() + mt.scaled(n), top_p + t, m.region.y_bot());
+    tr.rec(|| {
+        Step::new("section", "composite.n", "Modular ratio of the topping", sy("n", "n"))
+            .formula(div(v(0), v(1)))
+            .input(sy("E_(c,t)", "Ec,t"), tp.concrete.ec, Unit::Stress)
+            .input(sy("E_c", "Ec"), c.ec, Unit::Stress)
+            .result(n, Unit::Ratio)
+    });
+    tr.rec(|| {
+        Step::new("section", "composite.A", "Area of the transformed composite section", sy("A_c", "Ac"))
+            .formula(add(vec![v(0), mul(vec![v(1), v(2), v(3)])]))
+            .input(sy("A", "A"), precast.area, Unit::Area)
+            .input(sy("n", "n"), n, Unit::Ratio)
+            .input(sy("b_t", "bt"), tp.width, Unit::Length)
+            .input(sy("t", "t"), t, Unit::Length)
+            .result(comp.area, Unit::Area)
+    });
+    tr.rec(|| {
+        Step::new("section", "composite.ybc", "Height of the composite centroid above the bottom", sy("y_(b c)", "ybc"))
+            .result(comp.cb(), Unit::Length)
+            .note("transformed section: the topping's area taken at n")
+    });
+    tr.rec(|| {
+        Step::new("section", "composite.Ic", "Moment of inertia of the composite section", sy("I_c", "Ic"))
+            .result(comp.i, Unit::Inertia)
+    });
+    tr.rec(|| {
+        Step::new("section", "composite.Sbc", "Composite section modulus, bottom fibre", sy("S_(b c)", "Sbc"))
+            .formula(div(v(0), v(1)))
+            .input(sy("I_c", "Ic"), comp.i, Unit::Inertia)
+            .input(sy("y_(b c)", "ybc"), comp.cb(), Unit::Length)
+            .result(comp.sb(), Unit::Modulus)
+    });
+    (region, comp, n)
+}
+
+/// The stress block factor beta1 of the concrete at the compression face, recorded.
+fn record_beta1(m: &Member, basis: &'static dyn Basis, fc_top: f64, tr: &mut Trace) -> f64 {
     let b1 = basis.beta1(fc_top);
     tr.rec(|| {
         let mut st = Step::new("materials", "beta1", "Stress block factor", sy("beta_1", "beta1"))
@@ -162,23 +201,7 @@ pub(super) fn prepare<'a>(m: &'a Member, basis: &'static dyn Basis, tr: &mut Tra
         }
         st
     });
-    Ok(Prepared {
-        m,
-        basis,
-        sys,
-        cv,
-        precast,
-        composite,
-        n,
-        topping_region,
-        top_p,
-        top: top_p + t,
-        t,
-        beta1: b1.value,
-        fc_top,
-        curves,
-        service_tension: None,
-    })
+    b1.value
 }
 
 /// Whether a section is not symmetric about a vertical axis: the compression zone above

@@ -374,6 +374,22 @@ fn record_block(
     cc
 }
 
+/// A steel layer's state at nominal strength, as the steps and the layer table read it.
+struct LayerAt {
+    /// Position among the strand layers then the bar layers, and the layer's number
+    /// within its kind (1-based).
+    j: usize,
+    k: usize,
+    is_strand: bool,
+    eps3: f64,
+    eps: f64,
+    f: f64,
+    force: f64,
+    /// The share of the layer inside the stress block.
+    inside: f64,
+    active: bool,
+}
+
 /// One steel layer at nominal strength: its strains, stress and force, recorded; its
 /// row of the layer table; and its force for the sums where it carries any.
 #[allow(clippy::too_many_arguments)]
@@ -387,129 +403,171 @@ fn record_layer(
     stl: &Steel,
     tr: &mut Trace,
 ) -> (LayerOut, Option<LayerForce>) {
-    let m = p.m;
+    let ns = p.m.strands.len();
+    let is_strand = j < ns;
+    let eps3 = stl.eps3(st.c, model.ecu);
+    let eps = stl.pre + eps3;
+    let l = LayerAt {
+        j,
+        k: if is_strand { j + 1 } else { j - ns + 1 },
+        is_strand,
+        eps3,
+        eps,
+        f: stl.stress_at(eps),
+        force: stl.force(st.c, st.a, model.ecu) * p.cv.kf,
+        inside: stl.inside(st.a),
+        active: stl.area > 0.0,
+    };
+    let kind = if is_strand { "strand" } else { "bar" };
+    let total = l.active.then(|| {
+        layer_steps(p, li, model, st.c, at, stl, &l, tr);
+        (kind, l.k, l.force, stl.d)
+    });
     // the sketch's steel positions are drawn only in the package (traced runs)
-    let sketch = tr.on();
+    (layer_row(p, at, stl, &l, tr.on()), total)
+}
+
+/// The steps of a layer that carries force: its flexural strain, (strand) its total
+/// strain, its stress and its force.
+#[allow(clippy::too_many_arguments)]
+fn layer_steps(
+    p: &Prepared,
+    li: usize,
+    model: &Model,
+    c: f64,
+    at: &[StrandAt],
+    stl: &Steel,
+    l: &LayerAt,
+    tr: &mut Trace,
+) {
     let cv = p.cv;
     let tag = |k: &str| format!("L{}.{k}", li + 1);
-    let (c, a) = (st.c, st.a);
-    let ns = m.strands.len();
-    let mut total = None;
-    let is_strand = j < ns;
-    let k = if is_strand { j + 1 } else { j - ns + 1 };
-    let eps3 = stl.eps3(c, model.ecu);
-    let eps = stl.pre + eps3;
-    let f = stl.stress_at(eps);
-    let inside = stl.inside(a);
-    let force = stl.force(c, a, model.ecu) * cv.kf;
+    let LayerAt { k, is_strand, eps3, f, force, inside, .. } = *l;
     let (kind, subs) = if is_strand { ("strand", "\"p\"") } else { ("bar", "\"s\"") };
-    let active = stl.area > 0.0;
-    if active {
-        let pid = if is_strand { "strand" } else { "bar" };
-        tr.rec(|| {
-            Step::new(
-                "strength",
-                tag(&format!("strength.{pid}.eps3.{k}")),
-                format!("Flexural strain, {kind} layer {k}"),
-                sym_k("epsilon", if is_strand { "3" } else { "s" }, if is_strand { "eps3" } else { "eps_s" }, k),
-            )
-            .formula(div(mul(vec![n(model.ecu), sub(v(0), v(1))]), v(1)))
-            .input(sym_k("d", subs, "d", k), stl.d, Unit::Length)
-            .input(sy("c", "c"), c, Unit::Length)
-            .result(eps3, Unit::Strain)
-            .clause(p.basis.cite(Clause::StrainCompatibility))
-        });
-        if is_strand {
-            let i = j;
-            tr.rec(|| {
-                Step::new(
-                    "strength",
-                    tag(&format!("strength.strand.eps.{k}")),
-                    format!("Total strand strain, layer {k}"),
-                    sym_k("epsilon", "\"ps\"", "eps_ps", k),
-                )
-                .formula(add(vec![v(0), v(1), v(2)]))
-                .input(sym_k("epsilon", "1", "eps1", k), at[i].eps1, Unit::Strain)
-                .input(sym_k("epsilon", "2", "eps2", k), at[i].eps2, Unit::Strain)
-                .input(sym_k("epsilon", "3", "eps3", k), eps3, Unit::Strain)
-                .result(eps, Unit::Strain)
-            });
-            let curve = p.curves[i];
-            let raw = stl.law.stress(eps);
-            tr.rec(|| {
-                let stp = Step::new(
-                    "strength",
-                    tag(&format!("strength.strand.f.{k}")),
-                    format!("Strand stress, layer {k}"),
-                    sym_k("f", "\"ps\"", "fps", k),
-                );
-                if raw > stl.cap {
-                    stp.formula(min(vec![curve.piece(eps).formula, v(1)]))
-                        .input(sym_k("epsilon", "\"ps\"", "eps_ps", k), eps, Unit::Strain)
-                        .input(sym_k("f", "\"px\"", "fpx", k), stl.cap, Unit::Stress)
-                        .result(f, Unit::Stress)
-                        .clause(p.basis.cite(Clause::StrandStressLimit))
-                        .note(format!("{}; limited to fpx, the strand is not fully developed here", curve.model.name()))
-                } else {
-                    let pc = curve.piece(eps);
-                    stp.formula(pc.formula)
-                        .input(sym_k("epsilon", "\"ps\"", "eps_ps", k), eps, Unit::Strain)
-                        .result(f, Unit::Stress)
-                        .note(format!("{}, {}", curve.model.name(), pc.note))
-                }
-            });
-        } else {
-            let b = match stl.law {
-                SteelLaw::Bar(b) => b,
-                SteelLaw::Strand(_) => Bar { fy: 0.0, es: 0.0, hardening: 0.0, fu: 0.0 },
-            };
-            tr.rec(|| {
-                let stp = Step::new(
-                    "strength",
-                    tag(&format!("strength.bar.f.{k}")),
-                    format!("Bar stress, layer {k}"),
-                    sym_k("f", "\"s\"", "fs", k),
-                );
-                if (b.es * eps).abs() >= b.fy {
-                    stp.formula(if eps >= 0.0 { v(0) } else { neg(v(0)) })
-                        .input(sy("f_y", "fy"), b.fy, Unit::Stress)
-                        .result(f, Unit::Stress)
-                        .note(if eps >= 0.0 { "yielded in tension" } else { "yielded in compression" })
-                } else {
-                    stp.formula(mul(vec![v(0), v(1)]))
-                        .input(sy("E_s", "Es"), b.es, Unit::Stress)
-                        .input(sym_k("epsilon", "s", "eps_s", k), eps, Unit::Strain)
-                        .result(f, Unit::Stress)
-                        .note("elastic")
-                }
-            });
-        }
-        tr.rec(|| {
-            let fsym = if is_strand { sym_k("f", "\"ps\"", "fps", k) } else { sym_k("f", "\"s\"", "fs", k) };
-            let asym = if is_strand { sym_k("A", "\"ps\"", "Aps", k) } else { sym_k("A", "\"s\"", "As", k) };
-            let stp = Step::new(
-                "strength",
-                tag(&format!("strength.{pid}.T.{k}")),
-                format!("Force, {kind} layer {k}"),
-                sym_k("T", subs, "T", k),
-            );
-            if inside > 0.0 {
-                stp.formula(per(mul(vec![v(0), add(vec![v(1), mul(vec![v(2), v(3)])])]), cv.f_div))
-                    .input(asym, stl.area, Unit::Area)
-                    .input(fsym, f, Unit::Stress)
-                    .input(sy("0.85 f'_c", "0.85f'c"), stl.displaced, Unit::Stress)
-                    .input(sy("chi", "share in block"), inside, Unit::Ratio)
-                    .result(force, Unit::Force)
-                    .note("inside the stress block: the concrete it displaces is deducted; χ is the share of the layer within the block")
-            } else {
-                stp.formula(per(mul(vec![v(0), v(1)]), cv.f_div))
-                    .input(asym, stl.area, Unit::Area)
-                    .input(fsym, f, Unit::Stress)
-                    .result(force, Unit::Force)
-            }
-        });
-        total = Some((kind, k, force, stl.d));
+    let pid = if is_strand { "strand" } else { "bar" };
+    tr.rec(|| {
+        Step::new(
+            "strength",
+            tag(&format!("strength.{pid}.eps3.{k}")),
+            format!("Flexural strain, {kind} layer {k}"),
+            sym_k("epsilon", if is_strand { "3" } else { "s" }, if is_strand { "eps3" } else { "eps_s" }, k),
+        )
+        .formula(div(mul(vec![n(model.ecu), sub(v(0), v(1))]), v(1)))
+        .input(sym_k("d", subs, "d", k), stl.d, Unit::Length)
+        .input(sy("c", "c"), c, Unit::Length)
+        .result(eps3, Unit::Strain)
+        .clause(p.basis.cite(Clause::StrainCompatibility))
+    });
+    if is_strand {
+        strand_steps(p, &tag, at, stl, l, tr);
+    } else {
+        bar_stress_step(&tag, stl, l, tr);
     }
+    tr.rec(|| {
+        let fsym = if is_strand { sym_k("f", "\"ps\"", "fps", k) } else { sym_k("f", "\"s\"", "fs", k) };
+        let asym = if is_strand { sym_k("A", "\"ps\"", "Aps", k) } else { sym_k("A", "\"s\"", "As", k) };
+        let stp = Step::new(
+            "strength",
+            tag(&format!("strength.{pid}.T.{k}")),
+            format!("Force, {kind} layer {k}"),
+            sym_k("T", subs, "T", k),
+        );
+        if inside > 0.0 {
+            stp.formula(per(mul(vec![v(0), add(vec![v(1), mul(vec![v(2), v(3)])])]), cv.f_div))
+                .input(asym, stl.area, Unit::Area)
+                .input(fsym, f, Unit::Stress)
+                .input(sy("0.85 f'_c", "0.85f'c"), stl.displaced, Unit::Stress)
+                .input(sy("chi", "share in block"), inside, Unit::Ratio)
+                .result(force, Unit::Force)
+                .note("inside the stress block: the concrete it displaces is deducted; χ is the share of the layer within the block")
+        } else {
+            stp.formula(per(mul(vec![v(0), v(1)]), cv.f_div))
+                .input(asym, stl.area, Unit::Area)
+                .input(fsym, f, Unit::Stress)
+                .result(force, Unit::Force)
+        }
+    });
+}
+
+/// A strand layer's total strain and its stress (held to fpx where it is not fully
+/// developed).
+fn strand_steps(p: &Prepared, tag: &dyn Fn(&str) -> String, at: &[StrandAt], stl: &Steel, l: &LayerAt, tr: &mut Trace) {
+    let LayerAt { j: i, k, eps3, eps, f, .. } = *l;
+    tr.rec(|| {
+        Step::new(
+            "strength",
+            tag(&format!("strength.strand.eps.{k}")),
+            format!("Total strand strain, layer {k}"),
+            sym_k("epsilon", "\"ps\"", "eps_ps", k),
+        )
+        .formula(add(vec![v(0), v(1), v(2)]))
+        .input(sym_k("epsilon", "1", "eps1", k), at[i].eps1, Unit::Strain)
+        .input(sym_k("epsilon", "2", "eps2", k), at[i].eps2, Unit::Strain)
+        .input(sym_k("epsilon", "3", "eps3", k), eps3, Unit::Strain)
+        .result(eps, Unit::Strain)
+    });
+    let curve = p.curves[i];
+    let raw = stl.law.stress(eps);
+    tr.rec(|| {
+        let stp = Step::new(
+            "strength",
+            tag(&format!("strength.strand.f.{k}")),
+            format!("Strand stress, layer {k}"),
+            sym_k("f", "\"ps\"", "fps", k),
+        );
+        if raw > stl.cap {
+            stp.formula(min(vec![curve.piece(eps).formula, v(1)]))
+                .input(sym_k("epsilon", "\"ps\"", "eps_ps", k), eps, Unit::Strain)
+                .input(sym_k("f", "\"px\"", "fpx", k), stl.cap, Unit::Stress)
+                .result(f, Unit::Stress)
+                .clause(p.basis.cite(Clause::StrandStressLimit))
+                .note(format!("{}; limited to fpx, the strand is not fully developed here", curve.model.name()))
+        } else {
+            let pc = curve.piece(eps);
+            stp.formula(pc.formula)
+                .input(sym_k("epsilon", "\"ps\"", "eps_ps", k), eps, Unit::Strain)
+                .result(f, Unit::Stress)
+                .note(format!("{}, {}", curve.model.name(), pc.note))
+        }
+    });
+}
+
+/// A bar layer's stress: elastic, or yielded.
+fn bar_stress_step(tag: &dyn Fn(&str) -> String, stl: &Steel, l: &LayerAt, tr: &mut Trace) {
+    let LayerAt { k, eps, f, .. } = *l;
+    let b = match stl.law {
+        SteelLaw::Bar(b) => b,
+        SteelLaw::Strand(_) => Bar { fy: 0.0, es: 0.0, hardening: 0.0, fu: 0.0 },
+    };
+    tr.rec(|| {
+        let stp = Step::new(
+            "strength",
+            tag(&format!("strength.bar.f.{k}")),
+            format!("Bar stress, layer {k}"),
+            sym_k("f", "\"s\"", "fs", k),
+        );
+        if (b.es * eps).abs() >= b.fy {
+            stp.formula(if eps >= 0.0 { v(0) } else { neg(v(0)) })
+                .input(sy("f_y", "fy"), b.fy, Unit::Stress)
+                .result(f, Unit::Stress)
+                .note(if eps >= 0.0 { "yielded in tension" } else { "yielded in compression" })
+        } else {
+            stp.formula(mul(vec![v(0), v(1)]))
+                .input(sy("E_s", "Es"), b.es, Unit::Stress)
+                .input(sym_k("epsilon", "s", "eps_s", k), eps, Unit::Strain)
+                .result(f, Unit::Stress)
+                .note("elastic")
+        }
+    });
+}
+
+/// A layer's row of the layer table (and its bars or strands in the sketch when
+/// `sketch`).
+fn layer_row(p: &Prepared, at: &[StrandAt], stl: &Steel, l: &LayerAt, sketch: bool) -> LayerOut {
+    let m = p.m;
+    let ns = m.strands.len();
+    let LayerAt { j, k, is_strand, eps3, eps, f, force, inside, active } = *l;
+    let kind = if is_strand { "strand" } else { "bar" };
     let (eps1, eps2, fse, label, count, unit_area, diameter, points) = if is_strand {
         let s_ = &m.strands[j];
         let y = p.top - stl.d;
@@ -541,7 +599,7 @@ fn record_layer(
             if sketch { layer_points(&m.region, y, b.count, b.diameter) } else { Vec::new() },
         )
     };
-    let out = LayerOut {
+    LayerOut {
         kind,
         index: k,
         label,
@@ -561,8 +619,7 @@ fn record_layer(
         active,
         points,
         diameter,
-    };
-    (out, total)
+    }
 }
 
 /// The sum of the steel forces, the equilibrium residual and Mn (shown units).

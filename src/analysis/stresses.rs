@@ -693,85 +693,16 @@ fn record_member(cx: &Ctx, tr: &mut Trace, ft_u: f64, ft_t: f64) {
 pub(super) fn record_station(p: &Prepared, d: &Demand, x: f64, stage: &StageStress, tr: &mut Trace) {
     let cx = context(p, d);
     let cv = p.cv;
-    let tag = format!("stresses.{}", stage.stage);
-    let id = |s: &str| format!("{tag}.{s}");
+    let s = StationSteps { p, x, stage, tag: format!("stresses.{}", stage.stage) };
+    let id = |t: &str| s.id(t);
     let release = stage.stage == "release";
-    let title = match stage.stage {
-        "release" => "at release",
-        "sustained" => "in service, prestress and sustained loads",
-        _ => "in service, prestress and all loads",
-    };
-    let (pf, e) = (stage.p, stage.e);
-    tr.rec(|| {
-        let mut st = Step::new("stresses", id("P"), format!("Prestress force at x = {} {}", crate::trace::show(x), p.sys.names().length), sy("P", "P"));
-        let site = Station::without_demand(String::new(), x);
-        let at = strands_at(p, 0, &site, &mut Trace::new(false));
-        let mut terms = Vec::new();
-        for (i, (s, a)) in p.m.strands.iter().zip(&at).enumerate() {
-            if s.fse <= 0.0 {
-                continue;
-            }
-            let k = i + 1;
-            let f = if release { s.fpi.unwrap_or(0.0) } else { s.fse };
-            let j = terms.len() * 3;
-            terms.push(mul(vec![v(j), v(j + 1), v(j + 2)]));
-            st = st
-                .input(crate::trace::Symbol::indexed("f", if release { "\"pi\"" } else { "\"se\"" }, if release { "fpi" } else { "fse" }, k), f, Unit::Stress)
-                .input(crate::trace::Symbol::indexed("A", "\"ps\"", "Aps", k), s.total_area(), Unit::Area)
-                .input(crate::trace::Symbol::indexed("r", "", "r", k), a.fse / s.fse, Unit::Ratio);
-        }
-        st.formula(per(add(terms), cv.f_div)).result(pf, Unit::Force).note(
-            "r: the share of each layer's prestress transferred here (0 where debonded, rising linearly over the transfer length past the end or the debond point, 1 beyond)",
-        )
-    });
-    tr.rec(|| {
-        Step::new("stresses", id("e"), "Eccentricity of the prestress below the precast centroid", sy("e", "e"))
-            .result(e, Unit::Length)
-            .note("the layers' distances below the centroid weighted by their forces here")
-    });
+    let title = s.title();
+    s.force(tr);
+    s.moments(&cx, tr);
     let (yt, yb) = (cx.top_p - cx.yc, cx.yc - cx.bot);
     let (st_p, sb_p) = (cx.i / yt, cx.i / yb);
     let (stc, sbc) = (cx.ic / (cx.top_p - cx.ycc), cx.ic / (cx.ycc - cx.bot));
-    if release {
-        tr.rec(|| {
-            Step::new("stresses", id("Msw"), "Self-weight moment at release", sy("M_(s w)", "Msw"))
-                .result(stage.m_precast, Unit::Moment)
-                .note(format!(
-                    "w x (L - x) / 2 with w = {} {} over the overall length L = {} {}: the member rests on its ends once the strands are released",
-                    crate::trace::show(super::demand::line_shown(p.sys, cx.w_sw)),
-                    match p.sys {
-                        crate::units::System::Us => "klf",
-                        crate::units::System::Si => "kN/m",
-                    },
-                    crate::trace::show(cx.len),
-                    p.sys.names().length
-                ))
-        });
-    } else {
-        tr.rec(|| {
-            Step::new("stresses", id("Mnc"), "Moment on the precast unit alone", sy("M_(n c)", "Mnc"))
-                .result(stage.m_precast, Unit::Moment)
-                .note("unfactored: self-weight, and the topping unless shored")
-        });
-        tr.rec(|| {
-            let why = match &stage.combination {
-                Some(c) => format!("the service combination {c} (the largest moment here) less Mnc"),
-                None if p.m.stresses.sustained_live == 0.0 => {
-                    "the dead load alone (no part of the live load is taken as sustained), less Mnc".to_string()
-                }
-                None => format!(
-                    "the dead load and {} times the live load (the share taken as sustained), less Mnc",
-                    crate::trace::show(p.m.stresses.sustained_live)
-                ),
-            };
-            let clause =
-                if stage.combination.is_some() { Clause::ServiceCombinations } else { Clause::ServiceCompression };
-            Step::new("stresses", id("Mc"), "Moment on the composite section", sy("M_c", "Mc"))
-                .result(stage.m_composite, Unit::Moment)
-                .clause(p.basis.cite(clause))
-                .note(why)
-        });
-    }
+    let (pf, e) = (stage.p, stage.e);
     let pm = if release { "M_(s w)" } else { "M_(n c)" };
     let fibre = |name: &str, sym: &'static str, plain: &'static str, s_p: f64, s_c: f64, sign: f64, f: &Fibre| {
         let ecc = mul(vec![v(0), v(2)]);
@@ -830,5 +761,112 @@ pub(super) fn record_station(p: &Prepared, d: &Demand, x: f64, stage: &StageStre
                 .result(f.stress, Unit::Stress)
                 .note("the topping's own stress: n times that of the transformed section")
         });
+    }
+}
+
+/// What the steps of one stage at a station share: the stage, where it is, and the
+/// prefix of its step ids.
+struct StationSteps<'a> {
+    p: &'a Prepared<'a>,
+    x: f64,
+    stage: &'a StageStress,
+    tag: String,
+}
+
+impl StationSteps<'_> {
+    fn id(&self, s: &str) -> String {
+        format!("{}.{s}", self.tag)
+    }
+
+    fn title(&self) -> &'static str {
+        match self.stage.stage {
+            "release" => "at release",
+            "sustained" => "in service, prestress and sustained loads",
+            _ => "in service, prestress and all loads",
+        }
+    }
+
+    /// The prestress force here, layer by layer, and its eccentricity.
+    fn force(&self, tr: &mut Trace) {
+        let (p, x, stage) = (self.p, self.x, self.stage);
+        let cv = p.cv;
+        let id = |t: &str| self.id(t);
+        let release = stage.stage == "release";
+        let (pf, e) = (stage.p, stage.e);
+        tr.rec(|| {
+            let mut st = Step::new("stresses", id("P"), format!("Prestress force at x = {} {}", crate::trace::show(x), p.sys.names().length), sy("P", "P"));
+            let site = Station::without_demand(String::new(), x);
+            let at = strands_at(p, 0, &site, &mut Trace::new(false));
+            let mut terms = Vec::new();
+            for (i, (s, a)) in p.m.strands.iter().zip(&at).enumerate() {
+                if s.fse <= 0.0 {
+                    continue;
+                }
+                let k = i + 1;
+                let f = if release { s.fpi.unwrap_or(0.0) } else { s.fse };
+                let j = terms.len() * 3;
+                terms.push(mul(vec![v(j), v(j + 1), v(j + 2)]));
+                st = st
+                    .input(crate::trace::Symbol::indexed("f", if release { "\"pi\"" } else { "\"se\"" }, if release { "fpi" } else { "fse" }, k), f, Unit::Stress)
+                    .input(crate::trace::Symbol::indexed("A", "\"ps\"", "Aps", k), s.total_area(), Unit::Area)
+                    .input(crate::trace::Symbol::indexed("r", "", "r", k), a.fse / s.fse, Unit::Ratio);
+            }
+            st.formula(per(add(terms), cv.f_div)).result(pf, Unit::Force).note(
+                "r: the share of each layer's prestress transferred here (0 where debonded, rising linearly over the transfer length past the end or the debond point, 1 beyond)",
+            )
+        });
+        tr.rec(|| {
+            Step::new("stresses", id("e"), "Eccentricity of the prestress below the precast centroid", sy("e", "e"))
+                .result(e, Unit::Length)
+                .note("the layers' distances below the centroid weighted by their forces here")
+        });
+    }
+
+    /// The moments of the stage: the self-weight at release; in service, the moment on the
+    /// precast unit alone and the one on the composite section.
+    fn moments(&self, cx: &Ctx, tr: &mut Trace) {
+        let (p, stage) = (self.p, self.stage);
+        let id = |t: &str| self.id(t);
+        let release = stage.stage == "release";
+        if release {
+            tr.rec(|| {
+                Step::new("stresses", id("Msw"), "Self-weight moment at release", sy("M_(s w)", "Msw"))
+                    .result(stage.m_precast, Unit::Moment)
+                    .note(format!(
+                        "w x (L - x) / 2 with w = {} {} over the overall length L = {} {}: the member rests on its ends once the strands are released",
+                        crate::trace::show(super::demand::line_shown(p.sys, cx.w_sw)),
+                        match p.sys {
+                            crate::units::System::Us => "klf",
+                            crate::units::System::Si => "kN/m",
+                        },
+                        crate::trace::show(cx.len),
+                        p.sys.names().length
+                    ))
+            });
+        } else {
+            tr.rec(|| {
+                Step::new("stresses", id("Mnc"), "Moment on the precast unit alone", sy("M_(n c)", "Mnc"))
+                    .result(stage.m_precast, Unit::Moment)
+                    .note("unfactored: self-weight, and the topping unless shored")
+            });
+            tr.rec(|| {
+                let why = match &stage.combination {
+                    Some(c) => format!("the service combination {c} (the largest moment here) less Mnc"),
+                    None if p.m.stresses.sustained_live == 0.0 => {
+                        "the dead load alone (no part of the live load is taken as sustained), less Mnc".to_string()
+                    }
+                    None => format!(
+                        "the dead load and {} times the live load (the share taken as sustained), less Mnc",
+                        crate::trace::show(p.m.stresses.sustained_live)
+                    ),
+                };
+                let clause =
+                    if stage.combination.is_some() { Clause::ServiceCombinations } else { Clause::ServiceCompression };
+                Step::new("stresses", id("Mc"), "Moment on the composite section", sy("M_c", "Mc"))
+                    .result(stage.m_composite, Unit::Moment)
+                    .clause(p.basis.cite(clause))
+                    .note(why)
+            });
+        }
     }
 }

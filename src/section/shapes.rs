@@ -189,17 +189,7 @@ impl Shape {
                 Ok(Region::new(vec![[-w, 0.0], [w, 0.0], [w, y], [f, y], [f, h], [-f, h], [-f, y], [-w, y]], vec![]))
             }
             Shape::InvertedTee { web_width: bw, height: h, ledge_width: bl, ledge_height: hl, ledges } => {
-                need(hl < h, "ledge_height", hl, || format!("less than height {h}"))?;
-                need(ledges == 1 || ledges == 2, "ledges", ledges as f64, || "1 (L-beam) or 2".into())?;
-                let w = bw / 2.0;
-                let right = w + bl;
-                let left = if ledges == 2 { -w - bl } else { -w };
-                let mut pts = vec![[left, 0.0], [right, 0.0], [right, hl], [w, hl], [w, h], [-w, h]];
-                if ledges == 2 {
-                    pts.push([-w, hl]);
-                    pts.push([left, hl]);
-                }
-                Ok(Region::new(pts, vec![]))
+                inverted_tee(bw, h, bl, hl, ledges)
             }
             Shape::DoubleTee {
                 flange_width: bf,
@@ -208,35 +198,7 @@ impl Shape {
                 stem_spacing: s,
                 stem_width_top: wt,
                 stem_width_bottom: wb,
-            } => {
-                need(hf < h, "flange_thickness", hf, || format!("less than height {h}"))?;
-                need(wt > 0.0 && wb > 0.0, "stem_width_bottom", wb, || "greater than 0".into())?;
-                need(s > wt.max(wb), "stem_spacing", s, || {
-                    format!("greater than the stem width {} so the stems do not overlap", wt.max(wb))
-                })?;
-                need(s + wt.max(wb) <= bf, "stem_spacing", s, || {
-                    format!("at most flange_width - stem width = {} so the stems lie under the flange", bf - wt.max(wb))
-                })?;
-                let (f, y, c) = (bf / 2.0, h - hf, s / 2.0);
-                let (t, b) = (wt / 2.0, wb / 2.0);
-                Ok(Region::new(
-                    vec![
-                        [-c - b, 0.0],
-                        [-c + b, 0.0],
-                        [-c + t, y],
-                        [c - t, y],
-                        [c - b, 0.0],
-                        [c + b, 0.0],
-                        [c + t, y],
-                        [f, y],
-                        [f, h],
-                        [-f, h],
-                        [-f, y],
-                        [-c - t, y],
-                    ],
-                    vec![],
-                ))
-            }
+            } => double_tee(bf, hf, h, s, (wt, wb)),
             Shape::IGirder {
                 height: h,
                 top_flange_width: bt,
@@ -246,58 +208,115 @@ impl Shape {
                 bottom_flange_width: bb,
                 bottom_flange_thickness: tb,
                 bottom_taper: hb,
-            } => {
-                need(tt + ht + tb + hb < h, "height", h, || {
-                    format!("greater than the flanges and tapers together ({})", tt + ht + tb + hb)
-                })?;
-                need(bw <= bt, "web_width", bw, || format!("at most top_flange_width {bt}"))?;
-                need(bw <= bb, "web_width", bw, || format!("at most bottom_flange_width {bb}"))?;
-                let (w, t, b) = (bw / 2.0, bt / 2.0, bb / 2.0);
-                let mut pts = vec![[-b, 0.0], [b, 0.0], [b, tb]];
-                if hb > 0.0 && b > w {
-                    pts.push([w, tb + hb]);
-                } else {
-                    pts.push([w, tb]);
-                }
-                if ht > 0.0 && t > w {
-                    pts.push([w, h - tt - ht]);
-                } else {
-                    pts.push([w, h - tt]);
-                }
-                pts.extend([[t, h - tt], [t, h], [-t, h], [-t, h - tt]]);
-                if ht > 0.0 && t > w {
-                    pts.push([-w, h - tt - ht]);
-                } else {
-                    pts.push([-w, h - tt]);
-                }
-                if hb > 0.0 && b > w {
-                    pts.push([-w, tb + hb]);
-                } else {
-                    pts.push([-w, tb]);
-                }
-                pts.push([-b, tb]);
-                dedup(&mut pts);
-                Ok(Region::new(pts, vec![]))
-            }
+            } => i_girder(h, (bt, tt, ht), bw, (bb, tb, hb)),
             Shape::HollowCore { width: w, height: h, void_count: n, void_diameter: d, void_center_height: yc } => {
-                need(n >= 1, "void_count", n as f64, || "at least 1".into())?;
-                let pitch = w / n as f64;
-                need(d < pitch, "void_diameter", d, || {
-                    format!("less than the void pitch width / void_count = {pitch}")
-                })?;
-                need(yc - d / 2.0 > 0.0, "void_center_height", yc, || {
-                    format!("more than void_diameter / 2 = {} (the void must stay above the bottom)", d / 2.0)
-                })?;
-                need(yc + d / 2.0 < h, "void_center_height", yc, || {
-                    format!("less than height - void_diameter / 2 = {} (the void must stay below the top)", h - d / 2.0)
-                })?;
-                let x = w / 2.0;
-                let holes = (0..n).map(|k| circle(-x + pitch * (k as f64 + 0.5), yc, d)).collect();
-                Ok(Region::new(vec![[-x, 0.0], [x, 0.0], [x, h], [-x, h]], holes))
+                hollow_core(w, h, n, d, yc)
             }
             Shape::Polygon { ref outline, ref holes } => Ok(Region::new(outline.clone(), holes.clone())),
         }
     }
+}
+
+/// An inverted tee (two ledges) or an L-beam (one, on the right).
+fn inverted_tee(bw: f64, h: f64, bl: f64, hl: f64, ledges: u32) -> Result<Region, ShapeError> {
+    need(hl < h, "ledge_height", hl, || format!("less than height {h}"))?;
+    need(ledges == 1 || ledges == 2, "ledges", ledges as f64, || "1 (L-beam) or 2".into())?;
+    let w = bw / 2.0;
+    let right = w + bl;
+    let left = if ledges == 2 { -w - bl } else { -w };
+    let mut pts = vec![[left, 0.0], [right, 0.0], [right, hl], [w, hl], [w, h], [-w, h]];
+    if ledges == 2 {
+        pts.push([-w, hl]);
+        pts.push([left, hl]);
+    }
+    Ok(Region::new(pts, vec![]))
+}
+
+/// A double tee: a flange over two tapered stems, `s` apart centre to centre.
+fn double_tee(bf: f64, hf: f64, h: f64, s: f64, (wt, wb): (f64, f64)) -> Result<Region, ShapeError> {
+    need(hf < h, "flange_thickness", hf, || format!("less than height {h}"))?;
+    need(wt > 0.0 && wb > 0.0, "stem_width_bottom", wb, || "greater than 0".into())?;
+    need(s > wt.max(wb), "stem_spacing", s, || {
+        format!("greater than the stem width {} so the stems do not overlap", wt.max(wb))
+    })?;
+    need(s + wt.max(wb) <= bf, "stem_spacing", s, || {
+        format!("at most flange_width - stem width = {} so the stems lie under the flange", bf - wt.max(wb))
+    })?;
+    let (f, y, c) = (bf / 2.0, h - hf, s / 2.0);
+    let (t, b) = (wt / 2.0, wb / 2.0);
+    Ok(Region::new(
+        vec![
+            [-c - b, 0.0],
+            [-c + b, 0.0],
+            [-c + t, y],
+            [c - t, y],
+            [c - b, 0.0],
+            [c + b, 0.0],
+            [c + t, y],
+            [f, y],
+            [f, h],
+            [-f, h],
+            [-f, y],
+            [-c - t, y],
+        ],
+        vec![],
+    ))
+}
+
+/// An I-girder: top and bottom flanges with their tapers, and the web between.
+fn i_girder(
+    h: f64,
+    (bt, tt, ht): (f64, f64, f64),
+    bw: f64,
+    (bb, tb, hb): (f64, f64, f64),
+) -> Result<Region, ShapeError> {
+    need(tt + ht + tb + hb < h, "height", h, || {
+        format!("greater than the flanges and tapers together ({})", tt + ht + tb + hb)
+    })?;
+    need(bw <= bt, "web_width", bw, || format!("at most top_flange_width {bt}"))?;
+    need(bw <= bb, "web_width", bw, || format!("at most bottom_flange_width {bb}"))?;
+    let (w, t, b) = (bw / 2.0, bt / 2.0, bb / 2.0);
+    let mut pts = vec![[-b, 0.0], [b, 0.0], [b, tb]];
+    if hb > 0.0 && b > w {
+        pts.push([w, tb + hb]);
+    } else {
+        pts.push([w, tb]);
+    }
+    if ht > 0.0 && t > w {
+        pts.push([w, h - tt - ht]);
+    } else {
+        pts.push([w, h - tt]);
+    }
+    pts.extend([[t, h - tt], [t, h], [-t, h], [-t, h - tt]]);
+    if ht > 0.0 && t > w {
+        pts.push([-w, h - tt - ht]);
+    } else {
+        pts.push([-w, h - tt]);
+    }
+    if hb > 0.0 && b > w {
+        pts.push([-w, tb + hb]);
+    } else {
+        pts.push([-w, tb]);
+    }
+    pts.push([-b, tb]);
+    dedup(&mut pts);
+    Ok(Region::new(pts, vec![]))
+}
+
+/// A hollow-core plank: a rectangle with `n` round voids at even pitch.
+fn hollow_core(w: f64, h: f64, n: u32, d: f64, yc: f64) -> Result<Region, ShapeError> {
+    need(n >= 1, "void_count", n as f64, || "at least 1".into())?;
+    let pitch = w / n as f64;
+    need(d < pitch, "void_diameter", d, || format!("less than the void pitch width / void_count = {pitch}"))?;
+    need(yc - d / 2.0 > 0.0, "void_center_height", yc, || {
+        format!("more than void_diameter / 2 = {} (the void must stay above the bottom)", d / 2.0)
+    })?;
+    need(yc + d / 2.0 < h, "void_center_height", yc, || {
+        format!("less than height - void_diameter / 2 = {} (the void must stay below the top)", h - d / 2.0)
+    })?;
+    let x = w / 2.0;
+    let holes = (0..n).map(|k| circle(-x + pitch * (k as f64 + 0.5), yc, d)).collect();
+    Ok(Region::new(vec![[-x, 0.0], [x, 0.0], [x, h], [-x, h]], holes))
 }
 
 fn dedup(pts: &mut Vec<P>) {

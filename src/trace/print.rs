@@ -51,6 +51,8 @@ impl Printer<'_> {
         }
     }
 
+    // One arm per kind of expression, each a few lines: the function is long because the
+    // expression language has many kinds, and reads best as one table of them.
     fn write(&self, e: &Expr, out: &mut String) {
         let math = self.style == Style::Math;
         match e {

@@ -39,17 +39,7 @@ pub(super) fn loads(
         }
         return None;
     }
-    for (key, given) in [("mu", m.mu.is_some()), ("mnc", m.mnc.is_some())] {
-        if given {
-            cx.problem(
-                key,
-                format!("the member gives both {key} and loads ([member.loads] or [[member.point_load]])"),
-                Some(format!(
-                    "either loads, from which the demand is derived along the span, or {key} by hand: not both (a location may still give its own mu)"
-                )),
-            );
-        }
-    }
+    refuse_moments_with_loads(cx, m);
     let Some(length) = length else {
         cx.problem(
             "length",
@@ -58,18 +48,7 @@ pub(super) fn loads(
         );
         return None;
     };
-    let span = match &m.span {
-        // bearings within the quarter points: longer overhangs carry hogging moments
-        // this version shows but does not check
-        Some(_) => cx.ranged("span", &m.span, Dim::Length, 0.5 * length, length, false)?,
-        None => {
-            defaults.push(Default {
-                key: "span".into(),
-                text: "span between the centres of the bearings = the member's length (bearings at the ends)".into(),
-            });
-            length
-        }
-    };
+    let span = span(cx, m, length, defaults)?;
     let sys = cx.sys;
     let empty = raw::Loads {
         superimposed_dead: None,
@@ -84,36 +63,8 @@ pub(super) fn loads(
     let l = m.loads.as_ref().unwrap_or(&empty);
     cx.enter(Seg::Key("loads"));
     let width = tributary_width(cx, l, region, topping, defaults);
-    let mut uniform = Vec::new();
-    for (key, kind, q) in [
-        ("superimposed_dead", LoadKind::Dead, &l.superimposed_dead),
-        ("live", LoadKind::Live, &l.live),
-        ("roof_live", LoadKind::RoofLive, &l.roof_live),
-        ("snow", LoadKind::Snow, &l.snow),
-    ] {
-        if let (Some(q), Some(width)) = (q, width)
-            && let Some((area_load, w)) = load_value(cx, key, q, width)
-        {
-            uniform.push(LineLoad { kind, source: format!("loads.{key}"), area_load, w, precast_only: false });
-        }
-    }
-    let shored = l.shored.unwrap_or(false);
-    if l.shored.is_some() && topping.is_none() {
-        cx.problem(
-            "shored",
-            "shored is given but the member has no topping",
-            Some(
-                "shored = true says the topping is cast on a shored member: give it only with a [member.topping]"
-                    .to_string(),
-            ),
-        );
-    }
-    if topping.is_some() && l.shored.is_none() {
-        defaults.push(Default {
-            key: "loads.shored".into(),
-            text: "unshored construction: the self-weight and the topping's weight are carried by the precast unit alone; the other loads by the composite section".into(),
-        });
-    }
+    let uniform = uniform_loads(cx, l, width);
+    let shored = shored(cx, l, topping, defaults);
     let (live_factor, live_factor_reason) = live_factor(cx, l, uniform.iter().any(|u| u.kind == LoadKind::Live));
     cx.leave();
     let points = point_loads(cx, m, length);
@@ -133,6 +84,81 @@ pub(super) fn loads(
         live_factor: live_factor?,
         live_factor_reason,
     })
+}
+
+/// A member with loads takes its moments from them: a member-level mu or mnc beside
+/// them is refused.
+fn refuse_moments_with_loads(cx: &mut Ctx, m: &raw::Member) {
+    for (key, given) in [("mu", m.mu.is_some()), ("mnc", m.mnc.is_some())] {
+        if given {
+            cx.problem(
+                key,
+                format!("the member gives both {key} and loads ([member.loads] or [[member.point_load]])"),
+                Some(format!(
+                    "either loads, from which the demand is derived along the span, or {key} by hand: not both (a location may still give its own mu)"
+                )),
+            );
+        }
+    }
+}
+
+/// The span between the centres of the bearings: given (within half the length and the
+/// length), or the member's length.
+fn span(cx: &mut Ctx, m: &raw::Member, length: f64, defaults: &mut Vec<Default>) -> Option<f64> {
+    Some(match &m.span {
+        // bearings within the quarter points: longer overhangs carry hogging moments
+        // this version shows but does not check
+        Some(_) => cx.ranged("span", &m.span, Dim::Length, 0.5 * length, length, false)?,
+        None => {
+            defaults.push(Default {
+                key: "span".into(),
+                text: "span between the centres of the bearings = the member's length (bearings at the ends)".into(),
+            });
+            length
+        }
+    })
+}
+
+/// The area (or line) loads of `[member.loads]`, each as a line load over the tributary
+/// width.
+fn uniform_loads(cx: &mut Ctx, l: &raw::Loads, width: Option<f64>) -> Vec<LineLoad> {
+    let mut uniform = Vec::new();
+    for (key, kind, q) in [
+        ("superimposed_dead", LoadKind::Dead, &l.superimposed_dead),
+        ("live", LoadKind::Live, &l.live),
+        ("roof_live", LoadKind::RoofLive, &l.roof_live),
+        ("snow", LoadKind::Snow, &l.snow),
+    ] {
+        if let (Some(q), Some(width)) = (q, width)
+            && let Some((area_load, w)) = load_value(cx, key, q, width)
+        {
+            uniform.push(LineLoad { kind, source: format!("loads.{key}"), area_load, w, precast_only: false });
+        }
+    }
+    uniform
+}
+
+/// Whether the topping is cast on a shored member (only with a topping; unshored, the
+/// default, is stated).
+fn shored(cx: &mut Ctx, l: &raw::Loads, topping: Option<&Topping>, defaults: &mut Vec<Default>) -> bool {
+    let shored = l.shored.unwrap_or(false);
+    if l.shored.is_some() && topping.is_none() {
+        cx.problem(
+            "shored",
+            "shored is given but the member has no topping",
+            Some(
+                "shored = true says the topping is cast on a shored member: give it only with a [member.topping]"
+                    .to_string(),
+            ),
+        );
+    }
+    if topping.is_some() && l.shored.is_none() {
+        defaults.push(Default {
+            key: "loads.shored".into(),
+            text: "unshored construction: the self-weight and the topping's weight are carried by the precast unit alone; the other loads by the composite section".into(),
+        });
+    }
+    shored
 }
 
 /// The tributary width: given, or the widest top of the section (the topping's width

@@ -25,150 +25,9 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
     let kind = kind(cx, m, shape.as_ref());
     let topping = topping(cx, m, region.as_ref(), &mut defaults)?;
     let with_loads = loads::has_loads(m);
-    // moments
-    let mu = match &m.mu {
-        Some(_) => Some(cx.ranged("mu", &m.mu, Dim::Moment, 0.0, r.moment_max, true)?),
-        None => None,
-    };
-    let mnc = match &m.mnc {
-        Some(_) => {
-            let v = cx.ranged("mnc", &m.mnc, Dim::Moment, 0.0, r.moment_max, false)?;
-            if m.topping.is_none() {
-                cx.warn("mnc", "mnc is used only for members with a topping; it is ignored here");
-            }
-            v
-        }
-        None => {
-            if m.topping.is_some() && !with_loads {
-                defaults.push(Default { key: "mnc".into(), text: "non-composite moment Mnc = 0 (not given)".into() });
-            }
-            0.0
-        }
-    };
-    if m.location.len() > limits::LOCATIONS {
-        cx.problem(
-            "location",
-            format!("{} check locations", m.location.len()),
-            Some(format!("at most {}", limits::LOCATIONS)),
-        );
-        return None;
-    }
-    let mut locations = Vec::new();
-    for (k, l) in m.location.iter().enumerate() {
-        cx.enter(Seg::Key("location"));
-        cx.enter(Seg::Idx(k));
-        let name = cx.text("name", &l.name, 40).unwrap_or_else(|| format!("location {}", k + 1));
-        if locations.iter().any(|x: &Location| x.name == name) {
-            cx.problem(
-                "name",
-                format!("name = {name:?} is used twice in this member"),
-                Some("a unique name per location".to_string()),
-            );
-        }
-        let x = match (&l.x, length) {
-            (Some(_), Some(len)) => match cx.quantity("x", &l.x, Dim::Length) {
-                Some(x) if (0.0..=len).contains(&x) => Some(x),
-                Some(x) => {
-                    cx.problem(
-                        "x",
-                        format!(
-                            "x = {} lies outside the member, whose length is {}",
-                            cx.shown(Dim::Length, x),
-                            cx.shown(Dim::Length, len)
-                        ),
-                        Some(format!("0 <= x <= {} (x from the left end)", cx.shown(Dim::Length, len))),
-                    );
-                    None
-                }
-                None => None,
-            },
-            (Some(_), None) => {
-                cx.problem(
-                    "x",
-                    "x is given but the member has no length, so x cannot be measured from its ends",
-                    Some("give the member's length (end to end) in [[member]]; x then runs from 0 at the left end to the length".to_string()),
-                );
-                None
-            }
-            (None, _) => None,
-        };
-        let lmu = match &l.mu {
-            Some(_) => cx.ranged("mu", &l.mu, Dim::Moment, 0.0, r.moment_max, true).map(Some),
-            // derived from the member's loads at x
-            None if with_loads => Some(None),
-            None => {
-                if mu.is_none() {
-                    cx.problem(
-                        "mu",
-                        "mu is missing (neither the location nor the member gives it)",
-                        Some("the factored moment at the location".to_string()),
-                    );
-                }
-                mu.map(Some)
-            }
-        };
-        if l.x.is_none() {
-            cx.problem("x", "x is missing", Some("the location's distance from the member end".to_string()));
-        }
-        let mnc_scaled = !with_loads && l.mnc.is_none() && length.is_some() && x.is_some() && m.topping.is_some();
-        let lmnc = match &l.mnc {
-            Some(_) => cx.ranged("mnc", &l.mnc, Dim::Moment, 0.0, r.moment_max, false).map(Some),
-            None if with_loads => Some(None),
-            None => match (length, x) {
-                (Some(len), Some(x)) if m.topping.is_some() => {
-                    if mnc > 0.0 {
-                        defaults.push(Default {
-                            key: "location.mnc".into(),
-                            text: "where a location gives no mnc, the member's mnc (at midspan) is scaled by 4x(L - x)/L², as for a uniformly loaded simple span".into(),
-                        });
-                    }
-                    Some(Some(mnc * 4.0 * x * (len - x) / (len * len)))
-                }
-                _ => Some(Some(mnc)),
-            },
-        };
-        if let (Some(lmu), Some(x), Some(lmnc)) = (lmu, x, lmnc) {
-            locations.push(Location { name, x: Some(x), mu: lmu, mnc: lmnc, mnc_scaled });
-        }
-        cx.leave();
-        cx.leave();
-    }
-    // the member's mu and mnc are the values of the locations that give none: where
-    // every location gives its own, a member value would be used nowhere
-    if !m.location.is_empty() {
-        for (key, member_given, all_own) in [
-            ("mu", m.mu.is_some(), m.location.iter().all(|l| l.mu.is_some())),
-            ("mnc", m.mnc.is_some() && m.topping.is_some(), m.location.iter().all(|l| l.mnc.is_some())),
-        ] {
-            if member_given && all_own {
-                cx.problem(
-                    key,
-                    format!("{key} is given for the member and for every [[member.location]], so the member's {key} would be used by no location"),
-                    Some(format!("the member's {key} applies to the locations that give none: remove it, or remove {key} from the locations that should take it")),
-                );
-            }
-        }
-    }
-    // with loads, the stations along the span are the member's sections (the demand stage)
-    if m.location.is_empty() && !with_loads {
-        let (mu, mnc) = (mu.map(Some), Some(mnc));
-        match mu {
-            Some(mu) => match length {
-                Some(l) => {
-                    locations.push(Location { name: "midspan".into(), x: Some(l / 2.0), mu, mnc, mnc_scaled: false })
-                }
-                None => {
-                    locations.push(Location { name: "critical section".into(), x: None, mu, mnc, mnc_scaled: false })
-                }
-            },
-            None => cx.problem(
-                "mu",
-                "mu is missing",
-                Some("the factored moment, or [[member.location]] tables with x and mu".to_string()),
-            ),
-        }
-    }
-
+    let (mu, mnc) = moments(cx, m, with_loads, &mut defaults)?;
+    let mm = MemberMoments { length, mu, mnc, with_loads };
+    let locations = locations(cx, m, mm, &mut defaults)?;
     let loads = loads::loads(cx, m, length, region.as_ref(), topping.as_ref(), concrete.as_ref(), &mut defaults);
     if with_loads && loads.is_none() {
         return None;
@@ -208,6 +67,190 @@ pub(super) fn member(cx: &mut Ctx, m: &raw::Member) -> Option<Member> {
         losses,
         stresses,
     })
+}
+
+/// The member's factored moment `mu` (if given) and its non-composite moment `mnc` (0
+/// when not given).
+fn moments(cx: &mut Ctx, m: &raw::Member, with_loads: bool, defaults: &mut Vec<Default>) -> Option<(Option<f64>, f64)> {
+    let r = ranges(cx.sys);
+    let mu = match &m.mu {
+        Some(_) => Some(cx.ranged("mu", &m.mu, Dim::Moment, 0.0, r.moment_max, true)?),
+        None => None,
+    };
+    let mnc = match &m.mnc {
+        Some(_) => {
+            let v = cx.ranged("mnc", &m.mnc, Dim::Moment, 0.0, r.moment_max, false)?;
+            if m.topping.is_none() {
+                cx.warn("mnc", "mnc is used only for members with a topping; it is ignored here");
+            }
+            v
+        }
+        None => {
+            if m.topping.is_some() && !with_loads {
+                defaults.push(Default { key: "mnc".into(), text: "non-composite moment Mnc = 0 (not given)".into() });
+            }
+            0.0
+        }
+    };
+    Some((mu, mnc))
+}
+
+/// The member's check locations: those given, each read by [`location`], or (without
+/// loads) one at midspan from the member's moments.
+fn locations(cx: &mut Ctx, m: &raw::Member, mm: MemberMoments, defaults: &mut Vec<Default>) -> Option<Vec<Location>> {
+    let MemberMoments { length, mu, mnc, with_loads } = mm;
+    if m.location.len() > limits::LOCATIONS {
+        cx.problem(
+            "location",
+            format!("{} check locations", m.location.len()),
+            Some(format!("at most {}", limits::LOCATIONS)),
+        );
+        return None;
+    }
+    let mut locations = Vec::new();
+    for (k, l) in m.location.iter().enumerate() {
+        cx.enter(Seg::Key("location"));
+        cx.enter(Seg::Idx(k));
+        let read = location(cx, m, l, (k, &locations), mm, defaults);
+        locations.extend(read);
+        cx.leave();
+        cx.leave();
+    }
+    // the member's mu and mnc are the values of the locations that give none: where
+    // every location gives its own, a member value would be used nowhere
+    if !m.location.is_empty() {
+        for (key, member_given, all_own) in [
+            ("mu", m.mu.is_some(), m.location.iter().all(|l| l.mu.is_some())),
+            ("mnc", m.mnc.is_some() && m.topping.is_some(), m.location.iter().all(|l| l.mnc.is_some())),
+        ] {
+            if member_given && all_own {
+                cx.problem(
+                    key,
+                    format!("{key} is given for the member and for every [[member.location]], so the member's {key} would be used by no location"),
+                    Some(format!("the member's {key} applies to the locations that give none: remove it, or remove {key} from the locations that should take it")),
+                );
+            }
+        }
+    }
+    // with loads, the stations along the span are the member's sections (the demand stage)
+    if m.location.is_empty() && !with_loads {
+        let (mu, mnc) = (mu.map(Some), Some(mnc));
+        match mu {
+            Some(mu) => match length {
+                Some(l) => {
+                    locations.push(Location { name: "midspan".into(), x: Some(l / 2.0), mu, mnc, mnc_scaled: false })
+                }
+                None => {
+                    locations.push(Location { name: "critical section".into(), x: None, mu, mnc, mnc_scaled: false })
+                }
+            },
+            None => cx.problem(
+                "mu",
+                "mu is missing",
+                Some("the factored moment, or [[member.location]] tables with x and mu".to_string()),
+            ),
+        }
+    }
+
+    Some(locations)
+}
+
+/// The moments a location takes: the member's own (`mu`, `mnc`) where the location gives
+/// none, or derived from the loads (None) where the member has loads.
+#[derive(Clone, Copy)]
+struct MemberMoments {
+    length: Option<f64>,
+    mu: Option<f64>,
+    mnc: f64,
+    with_loads: bool,
+}
+
+/// One [[member.location]] (the k-th); `before` holds the locations read so far, whose
+/// names it must not repeat.
+fn location(
+    cx: &mut Ctx,
+    m: &raw::Member,
+    l: &raw::Location,
+    (k, before): (usize, &[Location]),
+    mm: MemberMoments,
+    defaults: &mut Vec<Default>,
+) -> Option<Location> {
+    let MemberMoments { length, mu, mnc, with_loads } = mm;
+    let r = ranges(cx.sys);
+    let name = cx.text("name", &l.name, 40).unwrap_or_else(|| format!("location {}", k + 1));
+    if before.iter().any(|x| x.name == name) {
+        cx.problem(
+            "name",
+            format!("name = {name:?} is used twice in this member"),
+            Some("a unique name per location".to_string()),
+        );
+    }
+    let x = match (&l.x, length) {
+        (Some(_), Some(len)) => match cx.quantity("x", &l.x, Dim::Length) {
+            Some(x) if (0.0..=len).contains(&x) => Some(x),
+            Some(x) => {
+                cx.problem(
+                    "x",
+                    format!(
+                        "x = {} lies outside the member, whose length is {}",
+                        cx.shown(Dim::Length, x),
+                        cx.shown(Dim::Length, len)
+                    ),
+                    Some(format!("0 <= x <= {} (x from the left end)", cx.shown(Dim::Length, len))),
+                );
+                None
+            }
+            None => None,
+        },
+        (Some(_), None) => {
+            cx.problem(
+                "x",
+                "x is given but the member has no length, so x cannot be measured from its ends",
+                Some("give the member's length (end to end) in [[member]]; x then runs from 0 at the left end to the length".to_string()),
+            );
+            None
+        }
+        (None, _) => None,
+    };
+    let lmu = match &l.mu {
+        Some(_) => cx.ranged("mu", &l.mu, Dim::Moment, 0.0, r.moment_max, true).map(Some),
+        // derived from the member's loads at x
+        None if with_loads => Some(None),
+        None => {
+            if mu.is_none() {
+                cx.problem(
+                    "mu",
+                    "mu is missing (neither the location nor the member gives it)",
+                    Some("the factored moment at the location".to_string()),
+                );
+            }
+            mu.map(Some)
+        }
+    };
+    if l.x.is_none() {
+        cx.problem("x", "x is missing", Some("the location's distance from the member end".to_string()));
+    }
+    let mnc_scaled = !with_loads && l.mnc.is_none() && length.is_some() && x.is_some() && m.topping.is_some();
+    let lmnc = match &l.mnc {
+        Some(_) => cx.ranged("mnc", &l.mnc, Dim::Moment, 0.0, r.moment_max, false).map(Some),
+        None if with_loads => Some(None),
+        None => match (length, x) {
+            (Some(len), Some(x)) if m.topping.is_some() => {
+                if mnc > 0.0 {
+                    defaults.push(Default {
+                        key: "location.mnc".into(),
+                        text: "where a location gives no mnc, the member's mnc (at midspan) is scaled by 4x(L - x)/L², as for a uniformly loaded simple span".into(),
+                    });
+                }
+                Some(Some(mnc * 4.0 * x * (len - x) / (len * len)))
+            }
+            _ => Some(Some(mnc)),
+        },
+    };
+    match (lmu, x, lmnc) {
+        (Some(lmu), Some(x), Some(lmnc)) => Some(Location { name, x: Some(x), mu: lmu, mnc: lmnc, mnc_scaled }),
+        _ => None,
+    }
 }
 
 /// The precast concrete.

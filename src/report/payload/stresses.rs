@@ -128,56 +128,9 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
     let sys = basis.units();
     let u = sys.names();
     let st = |v: f64| format!("{} {}", printed(v), u.stress);
-    // the stations and the named locations, in order of x
-    let mut at: Vec<(f64, Option<&str>, &[StageStress])> =
-        m.stations.iter().map(|r| (r.x, None, r.stresses.as_slice())).collect();
-    at.extend(
-        m.locations
-            .iter()
-            .filter(|l| !l.stresses.is_empty())
-            .filter_map(|l| Some((l.x?, Some(l.name.as_str()), l.stresses.as_slice()))),
-    );
-    at.extend(s.between.iter().map(|b| (b.x, Some(b.why.as_str()), b.stresses.as_slice())));
-    at.sort_by(|a, b| a.0.total_cmp(&b.0));
-    let rows: Vec<StressRow> = at.iter().map(|&(x, name, st)| row(x, name, st, s)).collect();
-    let mut release_limits = Vec::new();
-    if let (Some(l), Some(fci)) = (&s.release.limits, s.release.fci) {
-        release_limits = vec![
-            ("f'ci".to_string(), st(fci)),
-            (
-                "Compression away from the ends (at the ends)".to_string(),
-                format!("{} ({})", st(l.compression), st(l.compression_end)),
-            ),
-            (
-                "Tension away from the ends (at the ends)".to_string(),
-                format!("{} ({})", st(l.tension), st(l.tension_end)),
-            ),
-            (
-                "End zone, from each end".to_string(),
-                format!("{} {}", printed(s.release.end_zone.unwrap_or(0.0)), u.length),
-            ),
-        ];
-    }
-    let sl = &s.service.limits;
-    let mut service_limits = vec![
-        ("Compression, sustained loads".to_string(), st(sl.sustained)),
-        ("Compression, all loads".to_string(), st(sl.total)),
-    ];
-    if let (Some(a), Some(b)) = (sl.topping_sustained, sl.topping_total) {
-        service_limits.push(("Topping, sustained (all) loads".to_string(), format!("{} ({})", st(a), st(b))));
-    }
-    service_limits.push(("Class U up to / class T up to".to_string(), format!("{} / {}", st(s.ft_u), st(s.ft_t))));
-    let class_text = format!(
-        "the bottom fibre's largest stress under all service loads between the bearings (tension positive): ft = {} at x = {} {}; {}",
-        st(s.ft),
-        printed(s.ft_x),
-        u.length,
-        match s.class.letter() {
-            "U" => format!("at most {}: class U", st(s.ft_u)),
-            "T" => format!("above {} and at most {}: class T", st(s.ft_u), st(s.ft_t)),
-            _ => format!("above {}: class C", st(s.ft_t)),
-        }
-    );
+    let rows = rows_in_order(m, s);
+    let (release_limits, service_limits) = limits_shown(s, &u);
+    let class_text = class_text(s, &u);
     let d = m.demand.as_ref();
     let present = crate::input::model::LoadKind::ALL.map(|k| {
         d.is_some_and(|d| {
@@ -198,7 +151,7 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
         service_limits,
         combinations,
         sustained_live: printed(s.service.sustained_live),
-        has_topping: sl.topping_total.is_some(),
+        has_topping: s.service.limits.topping_total.is_some(),
         rows,
         reinforcement: s
             .reinforcement
@@ -233,6 +186,77 @@ pub fn stresses(m: &MemberResult, s: &MemberStresses, basis: &dyn Basis, reinfor
             "the camber rests on the release stage (Eci and the stress just after release), which is not checked for this member".to_string()
         }),
     }
+}
+
+/// The rows of the stress table: the stations, the named locations and the points the
+/// scan found between them, in order of x.
+fn rows_in_order(m: &MemberResult, s: &MemberStresses) -> Vec<StressRow> {
+    // the stations and the named locations, in order of x
+    let mut at: Vec<(f64, Option<&str>, &[StageStress])> =
+        m.stations.iter().map(|r| (r.x, None, r.stresses.as_slice())).collect();
+    at.extend(
+        m.locations
+            .iter()
+            .filter(|l| !l.stresses.is_empty())
+            .filter_map(|l| Some((l.x?, Some(l.name.as_str()), l.stresses.as_slice()))),
+    );
+    at.extend(s.between.iter().map(|b| (b.x, Some(b.why.as_str()), b.stresses.as_slice())));
+    at.sort_by(|a, b| a.0.total_cmp(&b.0));
+    let rows: Vec<StressRow> = at.iter().map(|&(x, name, st)| row(x, name, st, s)).collect();
+    rows
+}
+
+/// Rows of a list of limits: what is limited, and the limit with its unit.
+type LimitRows = Vec<(String, String)>;
+
+/// The stress limits as the sheet lists them: at release (where checked) and in service.
+fn limits_shown(s: &MemberStresses, u: &crate::units::UnitNames) -> (LimitRows, LimitRows) {
+    let st = |v: f64| format!("{} {}", printed(v), u.stress);
+    let mut release_limits = Vec::new();
+    if let (Some(l), Some(fci)) = (&s.release.limits, s.release.fci) {
+        release_limits = vec![
+            ("f'ci".to_string(), st(fci)),
+            (
+                "Compression away from the ends (at the ends)".to_string(),
+                format!("{} ({})", st(l.compression), st(l.compression_end)),
+            ),
+            (
+                "Tension away from the ends (at the ends)".to_string(),
+                format!("{} ({})", st(l.tension), st(l.tension_end)),
+            ),
+            (
+                "End zone, from each end".to_string(),
+                format!("{} {}", printed(s.release.end_zone.unwrap_or(0.0)), u.length),
+            ),
+        ];
+    }
+    let sl = &s.service.limits;
+    let mut service_limits = vec![
+        ("Compression, sustained loads".to_string(), st(sl.sustained)),
+        ("Compression, all loads".to_string(), st(sl.total)),
+    ];
+    if let (Some(a), Some(b)) = (sl.topping_sustained, sl.topping_total) {
+        service_limits.push(("Topping, sustained (all) loads".to_string(), format!("{} ({})", st(a), st(b))));
+    }
+    service_limits.push(("Class U up to / class T up to".to_string(), format!("{} / {}", st(s.ft_u), st(s.ft_t))));
+    (release_limits, service_limits)
+}
+
+/// The member's class in words: the largest bottom stress in service, where, and the
+/// class it gives.
+fn class_text(s: &MemberStresses, u: &crate::units::UnitNames) -> String {
+    let st = |v: f64| format!("{} {}", printed(v), u.stress);
+    format!(
+        "the bottom fibre's largest stress under all service loads between the bearings (tension positive): ft = {} at x = {} {}; {}",
+        st(s.ft),
+        printed(s.ft_x),
+        u.length,
+        match s.class.letter() {
+            "U" => format!("at most {}: class U", st(s.ft_u)),
+            "T" => format!("above {} and at most {}: class T", st(s.ft_u), st(s.ft_t)),
+            _ => format!("above {}: class C", st(s.ft_t)),
+        }
+    )
 }
 
 fn camber(c: &crate::analysis::camber::Camber) -> CamberShown {
