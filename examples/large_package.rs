@@ -42,19 +42,11 @@ name = "Generated checker"
     )
 }
 
-fn strainsheet_large(n: usize) -> String {
-    let mut s = head();
-    for i in 0..n {
-        let v = (i % 7) as f64;
-        match i % 3 {
-            0 => s.push_str(&format!(
-                r##"
-[[member]]
-id = "DT-{i}"
-length = {len}
-mnc = {mnc}
-mu = {mu}
-[member.concrete]
+/// A topped double tee's concrete, section and topping, and its steel: a harped layer of
+/// 8 strands and a straight one of `straight` strands, each at `fse`.
+fn double_tee(straight: u32, fse: f64) -> String {
+    format!(
+        r##"[member.concrete]
 fc = 6.0
 [member.section]
 shape = "double_tee"
@@ -76,30 +68,17 @@ diameter = 0.5
 fse = {fse}
 [[member.strands]]
 height = 2.5
-count = 2
+count = {straight}
 diameter = 0.5
 fse = {fse}
-[[member.location]]
-name = "near bearing"
-x = 24.0
-mu = 90.0
-[[member.location]]
-name = "midspan"
-x = {mid}
-"##,
-                len = 720.0 - 12.0 * v,
-                mid = (720.0 - 12.0 * v) / 2.0,
-                mnc = 300.0 - 5.0 * v,
-                mu = 700.0 + 10.0 * v,
-                fse = 160.0 + v
-            )),
-            1 => s.push_str(&format!(
-                r##"
-[[member]]
-id = "IT-{i}"
-length = 432.0
-mu = {mu}
-[member.concrete]
+"##
+    )
+}
+
+/// An inverted-tee girder's concrete, section and steel, its strand at `fse`.
+fn inverted_tee(fse: f64) -> String {
+    format!(
+        r##"[member.concrete]
 fc = 7.0
 [member.section]
 shape = "inverted_tee"
@@ -126,17 +105,14 @@ fse = 0.0
 height = 7.0
 count = 4
 size = "#6"
-"##,
-                mu = 1000.0 + 20.0 * v,
-                fse = 165.0 + v
-            )),
-            _ => s.push_str(&format!(
-                r##"
-[[member]]
-id = "HC-{i}"
-length = 330.0
-mu = {mu}
-[member.concrete]
+"##
+    )
+}
+
+/// A hollow-core plank's concrete, section and strand, at `fse`.
+fn hollow_core(fse: f64) -> String {
+    format!(
+        r##"[member.concrete]
 fc = 6.0
 [member.section]
 shape = "hollow_core"
@@ -150,11 +126,29 @@ height = 1.75
 count = 7
 diameter = 0.5
 fse = {fse}
-"##,
-                mu = 120.0 + 2.0 * v,
-                fse = 155.0 + v
-            )),
-        }
+"##
+    )
+}
+
+fn strainsheet_large(n: usize) -> String {
+    let mut s = head();
+    for i in 0..n {
+        let v = (i % 7) as f64;
+        let member = match i % 3 {
+            0 => {
+                let len = 720.0 - 12.0 * v;
+                format!(
+                    "id = \"DT-{i}\"\nlength = {len}\nmnc = {}\nmu = {}\n{}[[member.location]]\nname = \"near bearing\"\nx = 24.0\nmu = 90.0\n[[member.location]]\nname = \"midspan\"\nx = {}\n",
+                    300.0 - 5.0 * v,
+                    700.0 + 10.0 * v,
+                    double_tee(2, 160.0 + v),
+                    len / 2.0
+                )
+            }
+            1 => format!("id = \"IT-{i}\"\nlength = 432.0\nmu = {}\n{}", 1000.0 + 20.0 * v, inverted_tee(165.0 + v)),
+            _ => format!("id = \"HC-{i}\"\nlength = 330.0\nmu = {}\n{}", 120.0 + 2.0 * v, hollow_core(155.0 + v)),
+        };
+        s.push_str(&format!("\n[[member]]\n{member}"));
     }
     s
 }
@@ -167,115 +161,28 @@ fn strainsheet_loaded(n: usize) -> String {
         // a different length and live load for every member of a package of up to
         // several thousand
         let (a, b) = ((i % 101) as f64, (i % 13) as f64);
-        match i % 3 {
-            0 => s.push_str(&format!(
-                r##"
-[[member]]
-id = "DT-{i}"
-length = {len}
-span = {span}
-[member.loads]
-superimposed_dead = "5 psf"
-live = "{live} psf"
-[member.concrete]
-fc = 6.0
-[member.section]
-shape = "double_tee"
-flange_width = 144.0
-flange_thickness = 2.0
-height = 28.0
-stem_spacing = 72.0
-stem_width_top = 7.75
-stem_width_bottom = 5.75
-[member.topping]
-thickness = 3.0
-fc = 4.0
-[[member.strands]]
-depth_end = 14.0
-depth_harp = 24.5
-harp_x = 288.0
-count = 8
-diameter = 0.5
-fse = 165.0
-[[member.strands]]
-height = 2.5
-count = 4
-diameter = 0.5
-fse = 165.0
-[[member.location]]
-name = "near bearing"
-x = 24.0
-"##,
-                len = 620.0 + a,
-                span = 608.0 + a,
-                live = 30.0 + b,
-            )),
-            1 => s.push_str(&format!(
-                r##"
-[[member]]
-id = "IT-{i}"
-length = {len}
-[member.loads]
-superimposed_dead = "2.0 klf"
-live = "{live} klf"
-[member.concrete]
-fc = 7.0
-[member.section]
-shape = "inverted_tee"
-web_width = 16.0
-height = 36.0
-ledge_width = 8.0
-ledge_height = 12.0
-[[member.strands]]
-height = 2.5
-count = 10
-diameter = 0.6
-fse = 165.0
-[[member.strands]]
-height = 4.5
-count = 6
-diameter = 0.6
-fse = 165.0
-[[member.strands]]
-depth = 2.5
-count = 2
-diameter = 0.5
-fse = 0.0
-[[member.bars]]
-height = 7.0
-count = 4
-size = "#6"
-"##,
-                len = 380.0 + a / 2.0,
-                live = 1.0 + b / 20.0,
-            )),
-            _ => s.push_str(&format!(
-                r##"
-[[member]]
-id = "HC-{i}"
-length = {len}
-[member.loads]
-superimposed_dead = "15 psf"
-live = "{live} psf"
-[member.concrete]
-fc = 6.0
-[member.section]
-shape = "hollow_core"
-width = 48.0
-height = 10.0
-void_count = 6
-void_diameter = 6.5
-void_center_height = 5.0
-[[member.strands]]
-height = 1.75
-count = 7
-diameter = 0.5
-fse = 155.0
-"##,
-                len = 300.0 + a / 2.0,
-                live = 40.0 + b,
-            )),
-        }
+        let member = match i % 3 {
+            0 => format!(
+                "id = \"DT-{i}\"\nlength = {}\nspan = {}\n[member.loads]\nsuperimposed_dead = \"5 psf\"\nlive = \"{} psf\"\n{}[[member.location]]\nname = \"near bearing\"\nx = 24.0\n",
+                620.0 + a,
+                608.0 + a,
+                30.0 + b,
+                double_tee(4, 165.0)
+            ),
+            1 => format!(
+                "id = \"IT-{i}\"\nlength = {}\n[member.loads]\nsuperimposed_dead = \"2.0 klf\"\nlive = \"{} klf\"\n{}",
+                380.0 + a / 2.0,
+                1.0 + b / 20.0,
+                inverted_tee(165.0)
+            ),
+            _ => format!(
+                "id = \"HC-{i}\"\nlength = {}\n[member.loads]\nsuperimposed_dead = \"15 psf\"\nlive = \"{} psf\"\n{}",
+                300.0 + a / 2.0,
+                40.0 + b,
+                hollow_core(155.0)
+            ),
+        };
+        s.push_str(&format!("\n[[member]]\n{member}"));
     }
     s
 }
