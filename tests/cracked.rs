@@ -73,25 +73,37 @@ fn icr_against_concreteproperties() {
     close("T: Icr", num(&c["icr"], "icr"), 3737.219791, 1e-8); // [cp]
 }
 
-/// The decompression method for a rectangle, in a formulation of its own: for a depth c
-/// of the compression zone, k = Ec κ from the axial balance C + Σ F = P, then the
-/// moment about the strand's centroid C (h - c/3 - yp) + Σ F (y - yp) = M, solved for c
-/// by bisection. Steel layers (y, n A). Returns (c, k).
-fn decompression_by_hand(b: f64, h: f64, steel: &[(f64, f64)], p: f64, yp: f64, m: f64) -> (f64, f64) {
+/// The decompression method, in a formulation of its own, for a section of stacked
+/// rectangles (transformed width w from height y0 to y1 above the bottom; a topping at its
+/// modular ratio): for a depth c of the compression zone below the top, the axis at
+/// yna = top - c and k = Ec κ from the axial balance C + Σ F = P, with C the integral of
+/// k (y - yna) w dy over the compressed parts; then the moment about the strand's
+/// centroid, ∫ k (y - yna)(y - yp) w dy + Σ F (y - yp) = M, solved for c by bisection.
+/// Steel layers (y, n A). Returns (c, k).
+fn decompression_by_hand(parts: &[(f64, f64, f64)], steel: &[(f64, f64)], p: f64, yp: f64, m: f64) -> (f64, f64) {
+    let top = parts.iter().map(|q| q.2).fold(f64::MIN, f64::max);
+    // ∫ (y - a) dy and ∫ (y - a)(y - b) dy from y0 to y1
+    let first = |a: f64, y0: f64, y1: f64| ((y1 - a).powi(2) - (y0 - a).powi(2)) / 2.0;
+    let second = |a: f64, b: f64, y0: f64, y1: f64| {
+        let f = |y: f64| y.powi(3) / 3.0 - (a + b) * y * y / 2.0 + a * b * y;
+        f(y1) - f(y0)
+    };
+    let compressed = |yna: f64| parts.iter().filter(move |q| q.2 > yna).map(move |&(w, y0, y1)| (w, y0.max(yna), y1));
     let k_of = |c: f64| {
-        let yna = h - c;
-        p / (b * c * c / 2.0 + steel.iter().map(|(y, na)| na * (y - yna)).sum::<f64>())
+        let yna = top - c;
+        let cc: f64 = compressed(yna).map(|(w, y0, y1)| w * first(yna, y0, y1)).sum();
+        p / (cc + steel.iter().map(|(y, na)| na * (y - yna)).sum::<f64>())
     };
     let g = |c: f64| {
-        let yna = h - c;
+        let yna = top - c;
         let k = k_of(c);
-        k * (b * c * c / 2.0 * (h - c / 3.0 - yp) + steel.iter().map(|(y, na)| na * (y - yna) * (y - yp)).sum::<f64>())
-            - m
+        let mc: f64 = compressed(yna).map(|(w, y0, y1)| w * second(yna, yp, y0, y1)).sum();
+        k * (mc + steel.iter().map(|(y, na)| na * (y - yna) * (y - yp)).sum::<f64>()) - m
     };
-    // scan c down from h where k > 0 (the compression zone carries the force), then
-    // bisect the first change of sign of g
+    // scan c down from the top's depth where k > 0 (the compression zone carries the
+    // force), then bisect the first change of sign of g
     let steps = 10_000;
-    let cs: Vec<f64> = (0..=steps).map(|j| h * (1.0 - j as f64 / steps as f64)).filter(|&c| c > 0.0).collect();
+    let cs: Vec<f64> = (0..=steps).map(|j| top * (1.0 - j as f64 / steps as f64)).filter(|&c| c > 0.0).collect();
     let pair = cs
         .windows(2)
         .find(|w| k_of(w[0]) > 0.0 && k_of(w[1]) > 0.0 && g(w[0]).signum() != g(w[1]).signum())
@@ -106,6 +118,9 @@ fn decompression_by_hand(b: f64, h: f64, steel: &[(f64, f64)], p: f64, yp: f64, 
     (c, k_of(c))
 }
 
+/// The test rectangle as one part.
+const RECT: [(f64, f64, f64); 1] = [(12.0, 0.0, 24.0)];
+
 #[test]
 fn class_c_strand_stress_change_by_the_decompression_method() {
     let ec = 57.0 * 6000f64.sqrt(); // [ACI] 19.2.2.1(b), ksi
@@ -119,7 +134,7 @@ fn class_c_strand_stress_change_by_the_decompression_method() {
     let j = member_json(&rect("C1", 0.7, 7.0, BARS));
     assert_eq!(j["stresses"]["class"], "C");
     let cc = &j["stresses"]["crack_control"];
-    let (c, k) = decompression_by_hand(12.0, 24.0, &[(7.0, n_ps * aps), (2.5, n_bar * 1.58)], pe, 7.0, m(0.7));
+    let (c, k) = decompression_by_hand(&RECT, &[(7.0, n_ps * aps), (2.5, n_bar * 1.58)], pe, 7.0, m(0.7));
     close("C1: x", num(&cc["x"], "x"), 240.0, 1e-12);
     close("C1: depth of the compression zone", num(&cc["depth"], "depth"), c, 1e-7);
     let dfps = n_ps * k * ((24.0 - c) - 7.0); // tension in the strand below the axis
@@ -131,7 +146,7 @@ fn class_c_strand_stress_change_by_the_decompression_method() {
 
     // (2) strand alone at 3 in: Δfps over 20 ksi, the spacing limit of Table 24.3.2
     // against the input's spacing
-    let (c, k) = decompression_by_hand(12.0, 24.0, &[(3.0, n_ps * aps)], pe, 3.0, m(1.1));
+    let (c, k) = decompression_by_hand(&RECT, &[(3.0, n_ps * aps)], pe, 3.0, m(1.1));
     let dfps = n_ps * k * ((24.0 - c) - 3.0);
     assert!(dfps > 20.0 && dfps < 36.0, "by hand Δfps = {dfps}");
     let cover = 3.0 - 0.25; // to the strand's surface
@@ -157,6 +172,36 @@ fn class_c_strand_stress_change_by_the_decompression_method() {
             .any(|c| c["text"].as_str().is_some_and(|t| t.contains("class C") && t.contains("left to the engineer"))),
         "the open condition is listed: {open:?}"
     );
+}
+
+/// A topped member of class C: the topping is compressed at its modular ratio in the
+/// cracked section, and the whole service moment acts on the composite section (as the
+/// stress sheet says).
+#[test]
+fn class_c_with_a_topping_by_the_decompression_method() {
+    let ec = 57.0 * 6000f64.sqrt(); // [ACI] 19.2.2.1(b), ksi
+    let nt = 57.0 * 4000f64.sqrt() / ec; // the topping's modular ratio
+    let n_ps = 28_500.0 / ec; // [A416]
+    let aps = 8.0 * 0.153; // [A416]
+    let pe = 150.0 * aps;
+    // w: 0.3 (the rectangle) + 0.1125 (the 36 x 3 in topping) [wc] + 0.2 + 2.0 klf of
+    // live load; M = w L² / 8 at midspan [statics]
+    let m = (0.3 + 0.1125 + 0.2 + 2.0) * 40.0 * 40.0 / 8.0 * 12.0;
+    let topping = "[member.topping]\nthickness = 3.0\nwidth = 36.0\nfc = 4.0\n";
+    let j = member_json(&rect("C4", 2.0, 3.0, topping));
+    assert_eq!(j["stresses"]["class"], "C");
+    let cc = &j["stresses"]["crack_control"];
+    close("C4: x", num(&cc["x"], "x"), 240.0, 1e-12);
+    let parts = [(12.0, 0.0, 24.0), (36.0 * nt, 24.0, 27.0)];
+    let (c, k) = decompression_by_hand(&parts, &[(3.0, n_ps * aps)], pe, 3.0, m);
+    assert!(c > 3.0, "the axis lies in the precast unit, below the topping: c = {c}");
+    close("C4: depth of the compression zone", num(&cc["depth"], "depth"), c, 1e-7);
+    close("C4: Δfps", num(&cc["dfps"], "dfps"), n_ps * k * ((27.0 - c) - 3.0), 1e-7);
+    // with the topping taken no wider than the precast unit the answer would differ:
+    // the check sees the topping's width
+    let narrow = [(12.0, 0.0, 24.0), (12.0 * nt, 24.0, 27.0)];
+    let (c_narrow, _) = decompression_by_hand(&narrow, &[(3.0, n_ps * aps)], pe, 3.0, m);
+    assert!((c_narrow - c).abs() > 0.1, "the topping's width matters: {c_narrow} against {c}");
 }
 
 #[test]
