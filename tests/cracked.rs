@@ -204,6 +204,32 @@ fn class_c_with_a_topping_by_the_decompression_method() {
     assert!((c_narrow - c).abs() > 0.1, "the topping's width matters: {c_narrow} against {c}");
 }
 
+/// A strand far above the tension face: at its clear cover Table 24.3.2 gives a largest
+/// spacing of at most 0, so no spacing meets it; the check fails (not left open) and says
+/// why.
+#[test]
+fn no_spacing_meets_table_24_3_2_at_a_large_cover() {
+    let body = rect("C5", 0.5, 11.0, "");
+    let j = member_json(&body);
+    assert_eq!(j["stresses"]["class"], "C");
+    let cc = &j["stresses"]["crack_control"];
+    let dfps = num(&cc["dfps"], "dfps");
+    assert!(dfps > 20.0 && dfps < 36.0, "Δfps = {dfps}: within its own limit, so the spacing alone decides");
+    let cover = 11.0 - 0.25;
+    let smax = 2.0 / 3.0 * (15.0 * 40.0 / dfps - 2.5 * cover).min(12.0 * 40.0 / dfps); // [ACI] Table 24.3.2
+    assert!(smax < 0.0, "by hand s_max = {smax}");
+    close("C5: s_max", num(&cc["spacing_max"], "spacing_max"), smax, 1e-9);
+    assert_eq!(cc["ok"], false);
+    assert!(cc["open"].is_null(), "not left to the engineer: {}", cc["open"]);
+    assert_eq!(j["stresses"]["pass"], false);
+    // the step says why, rather than asking for the spacing
+    let pkg = parse(&format!("{HEAD_US}{body}"));
+    let a = analysis::analyze(&pkg, true).expect("analysis");
+    let step = a.members[0].trace.iter().find(|s| s.id == "stresses.cracked.s").expect("the spacing step");
+    let note = step.note.as_deref().unwrap_or_default();
+    assert!(note.contains("no spacing meets it") && note.contains("NOT MET"), "{note}");
+}
+
 #[test]
 fn class_t_and_c_live_deflection_bilinear_by_hand() {
     let ec = 57.0 * 6000f64.sqrt(); // [ACI] 19.2.2.1(b)

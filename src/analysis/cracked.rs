@@ -310,6 +310,10 @@ fn record(p: &Prepared, c: &CrackControl, tr: &mut Trace) {
     if let Some(smax) = c.spacing_max {
         tr.rec(|| {
             let against = match c.spacing {
+                _ if smax <= 0.0 => format!(
+                    "; at or below 0 at this cover: no spacing meets it, so the crack control is NOT MET whatever the spacing (reduce the clear cover of layer {} or its Δfps)",
+                    c.layer
+                ),
                 Some(s) => format!(
                     "; the input's spacing {} {}: {}",
                     show(s),

@@ -303,6 +303,13 @@ fn crack_text(c: &crate::analysis::cracked::CrackCheck, u: &crate::units::UnitNa
     };
     let within = |ok: bool| if ok { "within" } else { "BEYOND" };
     let spacing = match (c.spacing_max, c.spacing) {
+        (Some(s), _) if s <= 0.0 => format!(
+            "Table 24.3.2 allows no spacing at the tension face here: at the clear cover of {} {} its largest spacing is {} {}, at most 0, so the crack control is NOT MET whatever the spacing",
+            printed(c.cover),
+            u.length,
+            printed(s),
+            u.length
+        ),
         (None, _) => format!("at or below {} {} the spacing is not limited", printed(c.dfps_free), u.stress),
         (Some(s), Some(given)) => format!(
             "largest spacing of the reinforcement at the tension face {} {}: the input's {} {} is {} it",
