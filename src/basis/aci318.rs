@@ -37,6 +37,17 @@ impl Basis for Aci318 {
         self.sys
     }
 
+    fn reference(&self) -> &'static str {
+        match self.sys {
+            System::Us => {
+                "ACI Committee 318, _Building Code Requirements for Structural Concrete (ACI 318-19) and Commentary_, American Concrete Institute, 2019."
+            }
+            System::Si => {
+                "ACI Committee 318, _Building Code Requirements for Structural Concrete (ACI 318M-19) and Commentary_ (SI units), American Concrete Institute, 2019."
+            }
+        }
+    }
+
     fn clause(&self, c: Clause) -> &'static str {
         match c {
             Clause::StrainCompatibility => "22.2.1.2, 22.2.2.1",

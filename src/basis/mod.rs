@@ -157,6 +157,9 @@ pub trait Basis: Send + Sync {
     fn name(&self) -> &'static str;
     /// The unit system its formulas are written in.
     fn units(&self) -> System;
+    /// The code as the package's references list it (the publication, in Typst markup:
+    /// `_..._` sets a title in italics).
+    fn reference(&self) -> &'static str;
     /// The clause of a subject, without the code's name ("22.2.2.4.1").
     fn clause(&self, c: Clause) -> &'static str;
     /// The clause cited in full ("ACI 318-19 22.2.2.4.1").

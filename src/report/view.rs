@@ -241,6 +241,7 @@ mod tests {
         "package.revision",
         "package.date",
         "package.basis",
+        "package.basis_reference",
         "package.paper",
         "package.notes",
         "package.draft",

@@ -111,6 +111,10 @@ pub struct PackageShown {
     pub revision: String,
     pub date: String,
     pub basis: String,
+    /// The code as the references list it (from the design basis; empty in the payloads
+    /// of versions before 0.7.0).
+    #[serde(default)]
+    pub basis_reference: String,
     /// "letter" or "a4".
     pub paper: String,
     pub notes: Option<String>,
@@ -313,7 +317,7 @@ fn head(pkg: &Package, src: &Source, a: &Analysis, prov: &Provenance) -> Head {
             sha256: crate::integrity::sha256_hex(src.text.as_bytes()),
             lines: src.text.lines().count(),
         },
-        package: package_shown(&pkg.meta, a),
+        package: package_shown(&pkg.meta, pkg.basis(), a),
         defaults: defaults(pkg),
         warnings: pkg.warnings.iter().map(warning).collect(),
     }
@@ -338,7 +342,7 @@ fn units_shown(sys: System) -> UnitsShown {
     }
 }
 
-fn package_shown(meta: &Meta, a: &Analysis) -> PackageShown {
+fn package_shown(meta: &Meta, basis: &dyn crate::basis::Basis, a: &Analysis) -> PackageShown {
     let ids = |f: &dyn Fn(&crate::analysis::MemberResult) -> bool| {
         a.members.iter().filter(|m| f(m)).map(|m| m.id.clone()).collect::<Vec<_>>()
     };
@@ -363,6 +367,7 @@ fn package_shown(meta: &Meta, a: &Analysis) -> PackageShown {
         revision: meta.revision.clone(),
         date: meta.date.to_string(),
         basis: meta.basis.clone(),
+        basis_reference: basis.reference().into(),
         paper: match meta.paper {
             Paper::Letter => "letter",
             Paper::A4 => "a4",
