@@ -75,7 +75,7 @@ impl<'a> Transformed<'a> {
         let mut z = p.m.region.above(y);
         if let (Some(r), Some(n)) = (&p.topping_region, p.n) {
             let t = r.above(y);
-            z = z + Moments { area: n * t.area, qx: n * t.qx, qy: n * t.qy, ix: n * t.ix };
+            z = z + t.scaled(n);
         }
         for s in &self.steel {
             z = z + Moments { area: s.na, qx: s.na * s.y, qy: 0.0, ix: s.na * s.y * s.y };
@@ -222,8 +222,8 @@ fn crack_control(p: &Prepared, d: &Demand, x: f64, tr: &mut Trace) -> Result<Cra
     let dfps = s.n * ek * (y - s.y);
     let db = m.strands[layer - 1].diameter;
     let cover = s.y - m.region.y_bot() - db / 2.0;
-    let top_ratio = if m.topping.is_some() { p.n.unwrap_or(1.0) } else { 1.0 };
-    let top = -ek * (p.top - y) * top_ratio;
+    // the top of the topping by its modular ratio (n is given only with a topping)
+    let top = -ek * (p.top - y) * p.n.unwrap_or(1.0);
     let (dfps_max, dfps_free) = p.basis.crack_control();
     let spacing = m.stresses.tension_face_spacing;
     let spacing_max = (dfps > dfps_free).then(|| p.basis.crack_spacing(dfps, cover));

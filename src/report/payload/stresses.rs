@@ -202,8 +202,7 @@ fn rows_in_order(m: &MemberResult, s: &MemberStresses) -> Vec<StressRow> {
     );
     at.extend(s.between.iter().map(|b| (b.x, Some(b.why.as_str()), b.stresses.as_slice())));
     at.sort_by(|a, b| a.0.total_cmp(&b.0));
-    let rows: Vec<StressRow> = at.iter().map(|&(x, name, st)| row(x, name, st, s)).collect();
-    rows
+    at.iter().map(|&(x, name, st)| row(x, name, st, s)).collect()
 }
 
 /// Rows of a list of limits: what is limited, and the limit with its unit.
